@@ -1,0 +1,48 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { childEnv, loadConfig, repoRoot } from '../server/config';
+
+const SOURCES = [
+  'app',
+  'components',
+  'shared',
+  'assets',
+  'app.json',
+  'package.json',
+  'tsconfig.json',
+];
+
+function newestMtime(target: string): number {
+  if (!existsSync(target)) return 0;
+  const stat = statSync(target);
+  if (!stat.isDirectory()) return stat.mtimeMs;
+  return readdirSync(target).reduce(
+    (newest, entry) => Math.max(newest, newestMtime(path.join(target, entry))),
+    stat.mtimeMs,
+  );
+}
+
+export function webBuildIsStale(webDir: string): boolean {
+  const index = path.join(webDir, 'index.html');
+  if (!existsSync(index)) return true;
+  const sources = Math.max(...SOURCES.map((s) => newestMtime(path.join(repoRoot, s))));
+  return sources > statSync(index).mtimeMs;
+}
+
+/** Exports the web app with Expo when it is missing or older than its sources. */
+export function ensureWebBuild(webDir: string, opts: { force?: boolean } = {}): 'built' | 'fresh' {
+  if (!opts.force && !webBuildIsStale(webDir)) return 'fresh';
+  console.log('Building the web app (a cold build takes about two minutes)…');
+  const result = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', webDir], {
+    cwd: repoRoot,
+    stdio: 'inherit',
+    env: childEnv({ EXPO_NO_TELEMETRY: '1', CI: '1' }),
+  });
+  if (result.status !== 0) throw new Error('The web build failed; see the output above.');
+  return 'built';
+}
+
+if (require.main === module) {
+  ensureWebBuild(loadConfig().webDir, { force: process.argv.includes('--force') });
+}

@@ -1,0 +1,33 @@
+import path from 'node:path';
+import type { QueryInterface, Sequelize } from 'sequelize';
+import { SequelizeStorage, Umzug } from 'umzug';
+
+type MigrationModule = {
+  up: (qi: QueryInterface) => Promise<void>;
+  down: (qi: QueryInterface) => Promise<void>;
+};
+
+export function createMigrator(sequelize: Sequelize): Umzug<QueryInterface> {
+  return new Umzug({
+    migrations: {
+      glob: ['migrations/*.{ts,js}', { cwd: __dirname, ignore: ['**/*.d.ts'] }],
+      resolve: ({ name, path: file, context }) => {
+        // Stored without the extension so a .ts run (tsx) and a built .js run agree.
+        const migration = require(file as string) as MigrationModule;
+        return {
+          name: path.basename(name, path.extname(name)),
+          up: () => migration.up(context),
+          down: () => migration.down(context),
+        };
+      },
+    },
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  });
+}
+
+export async function migrateUp(sequelize: Sequelize): Promise<string[]> {
+  const done = await createMigrator(sequelize).up();
+  return done.map((m) => m.name);
+}

@@ -1,0 +1,33 @@
+import { z } from 'zod';
+
+/** Stable machine-readable codes; clients branch on these, never on message text. */
+export const errorCodes = [
+  'invalid_request',
+  'malformed_json',
+  'payload_too_large',
+  'not_found',
+  'internal',
+  'unavailable',
+] as const;
+
+export const errorCodeSchema = z.enum(errorCodes);
+export type ErrorCode = z.infer<typeof errorCodeSchema>;
+
+export const fieldErrorSchema = z.object({
+  path: z.string(),
+  message: z.string(),
+});
+
+export type FieldError = z.infer<typeof fieldErrorSchema>;
+
+export const errorBodySchema = z
+  .object({
+    error: z.object({
+      code: z.string(),
+      message: z.string(),
+      fields: z.array(fieldErrorSchema).optional(),
+    }),
+  })
+  .meta({ id: 'Error' });
+
+export type ErrorBody = z.infer<typeof errorBodySchema>;
