@@ -1,0 +1,50 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { DEMO_LAB_NAME, loadDemoData } from '../fixtures/demo';
+import { childEnv, loadConfig, repoRoot } from '../server/config';
+import { createSequelize } from '../server/db';
+import { migrateUp } from '../server/migrate';
+import { prepareAppDatabase } from './local-db';
+import { stopCluster } from './pg-cluster';
+
+// npm run dev: the API under tsx watch (reloads on change) plus the Expo web dev server on
+// port 8081, which forwards /api to the API (metro.config.js).
+const WEB_DEV_PORT = '8081';
+
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const db = await prepareAppDatabase(config);
+  const sequelize = createSequelize(db.url);
+  await migrateUp(sequelize);
+  if ((await loadDemoData()).loaded) console.log(`Loaded the demo data (${DEMO_LAB_NAME}).`);
+  await sequelize.close();
+
+  const apiUrl = `http://${config.host}:${config.port}`;
+  const children: ChildProcess[] = [
+    spawn('npx', ['tsx', 'watch', '--clear-screen=false', 'scripts/dev-api.ts'], {
+      cwd: repoRoot,
+      stdio: 'inherit',
+      env: childEnv({ DATABASE_URL: db.url }),
+    }),
+    spawn('npx', ['expo', 'start', '--web', '--port', WEB_DEV_PORT], {
+      cwd: repoRoot,
+      stdio: 'inherit',
+      env: childEnv({ QB_DEV_API_URL: apiUrl, EXPO_NO_TELEMETRY: '1' }),
+    }),
+  ];
+  console.log(
+    `\nDev: app at http://localhost:${WEB_DEV_PORT}, API at ${apiUrl}. Ctrl-C stops both.\n`,
+  );
+
+  const stop = () => {
+    for (const child of children) child.kill('SIGTERM');
+    if (db.cluster) stopCluster(db.cluster);
+    process.exit(0);
+  };
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+}
+
+main().catch((err: unknown) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exit(1);
+});

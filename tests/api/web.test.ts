@@ -1,0 +1,56 @@
+import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { freshDatabase, type TestDatabase } from '../support/db';
+
+let db: TestDatabase;
+beforeAll(async () => {
+  db = await freshDatabase();
+});
+afterAll(() => db.drop());
+
+function webDirWith(files: Record<string, string>): string {
+  const dir = mkdtempSync(path.join(os.tmpdir(), 'qb-web-'));
+  for (const [name, content] of Object.entries(files)) {
+    mkdirSync(path.dirname(path.join(dir, name)), { recursive: true });
+    writeFileSync(path.join(dir, name), content);
+  }
+  return dir;
+}
+
+const appFor = (webDir: string) =>
+  createApp({ config: { ...db.config, webDir }, sequelize: db.sequelize });
+
+describe('the web app', () => {
+  const webDir = webDirWith({
+    'index.html': '<!doctype html><title>Quenchbook</title>',
+    '_expo/static/js/web/entry-abc.js': 'console.log(1)',
+    'canvaskit.wasm': '\0asm',
+  });
+
+  it('serves index.html for a client-side route (SPA fallback)', async () => {
+    const res = await request(appFor(webDir)).get('/burn-tests/some/deep/link');
+    expect(res.status).toBe(200);
+    expect(res.text).toContain('<title>Quenchbook</title>');
+    expect(res.headers['cache-control']).toBe('no-cache');
+  });
+
+  it('serves hashed bundles as immutable', async () => {
+    const res = await request(appFor(webDir)).get('/_expo/static/js/web/entry-abc.js');
+    expect(res.status).toBe(200);
+    expect(res.headers['cache-control']).toContain('immutable');
+  });
+
+  it('serves WebAssembly as application/wasm', async () => {
+    const res = await request(appFor(webDir)).get('/canvaskit.wasm');
+    expect(res.headers['content-type']).toBe('application/wasm');
+  });
+
+  it('says how to build the app when the web export is missing', async () => {
+    const res = await request(appFor(webDirWith({}))).get('/recipes');
+    expect(res.status).toBe(503);
+    expect(res.text).toContain('npm run build:web');
+  });
+});

@@ -1,0 +1,89 @@
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { z } from 'zod';
+import { ApiError, apiRequest } from '../../components/api/client';
+
+type Reply = { status: number; body: string; type?: string };
+let reply: Reply;
+let lastBody = '';
+const server = http.createServer((req, res) => {
+  let data = '';
+  req.on('data', (c) => (data += c));
+  req.on('end', () => {
+    lastBody = data;
+    res.writeHead(reply.status, { 'Content-Type': reply.type ?? 'application/json' });
+    res.end(reply.body);
+  });
+});
+let base = '';
+beforeAll(async () => {
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+});
+afterAll(() => new Promise((resolve) => server.close(resolve)));
+
+const thing = z.object({ id: z.number() });
+const fail = (p: Promise<unknown>) =>
+  p.then(
+    () => {
+      throw new Error('expected a rejection');
+    },
+    (e: unknown) => e as ApiError,
+  );
+
+describe('apiRequest', () => {
+  it('returns the parsed body and sends JSON', async () => {
+    reply = { status: 200, body: '{"id":7}' };
+    await expect(
+      apiRequest('/x', thing, { baseUrl: base, method: 'POST', body: { a: 1 } }),
+    ).resolves.toEqual({ id: 7 });
+    expect(lastBody).toBe('{"a":1}');
+  });
+
+  it('turns an error body into an ApiError with its code, status and fields', async () => {
+    reply = {
+      status: 400,
+      body: JSON.stringify({
+        error: {
+          code: 'invalid_request',
+          message: 'Some fields are not valid.',
+          fields: [{ path: 'name', message: 'Required' }],
+        },
+      }),
+    };
+    const err = await fail(apiRequest('/x', thing, { baseUrl: base }));
+    expect(err).toBeInstanceOf(ApiError);
+    expect(err).toMatchObject({
+      status: 400,
+      code: 'invalid_request',
+      fields: [{ path: 'name', message: 'Required' }],
+    });
+  });
+
+  it('gives code unexpected_response for a non-JSON error page', async () => {
+    reply = { status: 502, body: '<html>Bad gateway</html>', type: 'text/html' };
+    expect(await fail(apiRequest('/x', thing, { baseUrl: base }))).toMatchObject({
+      status: 502,
+      code: 'unexpected_response',
+    });
+  });
+
+  it('gives code unexpected_response when a 2xx body does not match the schema', async () => {
+    reply = { status: 200, body: '{"id":"seven"}' };
+    expect(await fail(apiRequest('/x', thing, { baseUrl: base }))).toMatchObject({
+      code: 'unexpected_response',
+    });
+  });
+
+  it('accepts a listed non-2xx status whose body is an answer', async () => {
+    reply = { status: 503, body: '{"id":1}' };
+    await expect(
+      apiRequest('/x', thing, { baseUrl: base, acceptStatuses: [503] }),
+    ).resolves.toEqual({ id: 1 });
+  });
+
+  it('gives code network when the server cannot be reached', async () => {
+    const err = await fail(apiRequest('/x', thing, { baseUrl: 'http://127.0.0.1:1' }));
+    expect(err).toMatchObject({ status: 0, code: 'network' });
+  });
+});
