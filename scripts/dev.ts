@@ -20,14 +20,17 @@ async function main(): Promise<void> {
 
   const apiUrl = `http://${config.host}:${config.port}`;
   const children: ChildProcess[] = [
+    // Each child leads its own process group so that stopping reaches its children too.
     spawn('npx', ['tsx', 'watch', '--clear-screen=false', 'scripts/dev-api.ts'], {
       cwd: repoRoot,
       stdio: 'inherit',
+      detached: true,
       env: childEnv({ DATABASE_URL: db.url }),
     }),
     spawn('npx', ['expo', 'start', '--web', '--port', WEB_DEV_PORT], {
       cwd: repoRoot,
       stdio: 'inherit',
+      detached: true,
       env: childEnv({ QB_DEV_API_URL: apiUrl, EXPO_NO_TELEMETRY: '1' }),
     }),
   ];
@@ -36,7 +39,9 @@ async function main(): Promise<void> {
   );
 
   const stop = () => {
-    for (const child of children) child.kill('SIGTERM');
+    for (const child of children) {
+      if (child.pid) process.kill(-child.pid, 'SIGTERM');
+    }
     if (db.cluster) stopCluster(db.cluster);
     process.exit(0);
   };
