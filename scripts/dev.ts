@@ -1,9 +1,10 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { DEMO_LAB_NAME, loadDemoData } from '../fixtures/demo';
 import { childEnv, loadConfig, repoRoot } from '../server/config';
-import { createSequelize } from '../server/db';
 import { migrateUp } from '../server/migrate';
+import { createRuntime } from '../server/runtime';
 import { prepareAppDatabase } from './local-db';
+import { startMailCatcher } from './mail-catcher';
 import { stopCluster } from './pg-cluster';
 
 // npm run dev: the API under tsx watch (reloads on change) plus the Expo web dev server on
@@ -13,10 +14,13 @@ const WEB_DEV_PORT = '8081';
 async function main(): Promise<void> {
   const config = loadConfig();
   const db = await prepareAppDatabase(config);
-  const sequelize = createSequelize(db.url);
-  await migrateUp(sequelize);
-  if ((await loadDemoData()).loaded) console.log(`Loaded the demo data (${DEMO_LAB_NAME}).`);
-  await sequelize.close();
+  const runtime = createRuntime(config, db.url);
+  await migrateUp(runtime.sequelize);
+  if ((await loadDemoData({ config, ...runtime })).loaded)
+    console.log(`Loaded the demo data (${DEMO_LAB_NAME}).`);
+  await runtime.close();
+  // The catcher lives here, not in the API process that tsx watch restarts.
+  const stopMail = await startMailCatcher(config);
 
   const apiUrl = `http://${config.host}:${config.port}`;
   const children: ChildProcess[] = [
@@ -43,7 +47,7 @@ async function main(): Promise<void> {
       if (child.pid) process.kill(-child.pid, 'SIGTERM');
     }
     if (db.cluster) stopCluster(db.cluster);
-    process.exit(0);
+    void stopMail().finally(() => process.exit(0));
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

@@ -1,12 +1,13 @@
 import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
-import { loadDemoData, DEMO_LAB_NAME } from '../fixtures/demo';
+import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople, loadDemoData } from '../fixtures/demo';
 import { loadConfig } from '../server/config';
-import { createSequelize } from '../server/db';
 import { listen } from '../server/index';
 import { migrateUp } from '../server/migrate';
+import { createRuntime } from '../server/runtime';
 import { prepareAppDatabase } from './local-db';
+import { startMailCatcher } from './mail-catcher';
 import { ClusterError, stopCluster } from './pg-cluster';
 import { ensureWebBuild } from './web-build';
 
@@ -57,16 +58,20 @@ async function main(): Promise<void> {
   });
 
   const db = await prepareAppDatabase(config);
-  const sequelize = createSequelize(db.url);
-  const applied = await migrateUp(sequelize);
+  const runtime = createRuntime(config, db.url);
+  const applied = await migrateUp(runtime.sequelize);
   if (applied.length) console.log(`Applied migrations: ${applied.join(', ')}`);
-  const demo = await loadDemoData();
+  const stopMail = await startMailCatcher(config);
+  const demo = await loadDemoData({ config, ...runtime });
   if (demo.loaded) console.log(`Loaded the demo data (${DEMO_LAB_NAME}).`);
   ensureWebBuild(config.webDir);
 
-  const server = await listen(config, sequelize);
+  const server = await listen(config, runtime);
   console.log(`\nQuenchbook is running at ${url}`);
-  console.log(`Demo lab: ${DEMO_LAB_NAME}. Press Ctrl-C to stop.\n`);
+  console.log(`Demo lab "${DEMO_LAB_NAME}": sign in with password ${DEMO_PASSWORD} as`);
+  for (const p of demoPeople) console.log(`  ${p.email.padEnd(24)} ${p.role}`);
+  if (config.mail.fakeSmtp) console.log(`E-mail is captured locally: ${url}/dev/mail`);
+  console.log('Press Ctrl-C to stop.\n');
 
   let stopping = false;
   const stop = async () => {
@@ -75,7 +80,8 @@ async function main(): Promise<void> {
     console.log('\nStopping…');
     server.closeAllConnections();
     await new Promise((resolve) => server.close(resolve));
-    await sequelize.close();
+    await runtime.close();
+    await stopMail();
     if (db.cluster) console.log(`PostgreSQL: ${stopCluster(db.cluster)}`);
     process.exit(0);
   };

@@ -1,20 +1,38 @@
+import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import morgan from 'morgan';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
+import type { Mailer } from './mail/sender';
 import { apiNotFound, errorHandler } from './middleware/error';
 import { createRegistry, generateDocument } from './openapi';
+import type { PasswordHasher } from './passwords/hasher';
+import { authRouter, registerAuthDocs } from './routes/auth';
+import { devMailRouter } from './routes/dev-mail';
 import { healthRouter, registerHealthDocs } from './routes/health';
+import { invitationsRouter, registerInvitationDocs } from './routes/invitations';
+import { labsRouter, registerLabDocs } from './routes/labs';
+import { meRouter, registerMeDocs } from './routes/me';
+import type { ServiceDeps } from './services/deps';
 import { webRouter } from './web';
 
 export type AppDeps = {
   config: Config;
   sequelize: Sequelize;
+  hasher: PasswordHasher;
+  mailer: Mailer;
   logError?: (err: unknown) => void;
 };
 
-export function createApp({ config, sequelize, logError = console.error }: AppDeps): Express {
+export function createApp({
+  config,
+  sequelize,
+  hasher,
+  mailer,
+  logError = console.error,
+}: AppDeps): Express {
+  const deps: ServiceDeps = { config, hasher, mailer };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -37,19 +55,32 @@ export function createApp({ config, sequelize, logError = console.error }: AppDe
     }),
   );
   if (config.logRequests) app.use(morgan(config.env === 'production' ? 'combined' : 'dev'));
+  app.use(cookieParser());
 
   const docs = createRegistry();
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRouter({ sequelize, version: config.version, dbTimeoutMs: config.dbTimeoutMs }));
   registerHealthDocs(docs);
+  api.use(authRouter(deps));
+  registerAuthDocs(docs);
+  api.use(meRouter(deps));
+  registerMeDocs(docs);
+  api.use(invitationsRouter(deps));
+  registerInvitationDocs(docs);
+  api.use(labsRouter(deps));
+  registerLabDocs(docs);
 
   const openapi = generateDocument(docs, config.version);
   api.get('/openapi.json', (_req, res) => {
     res.json(openapi);
   });
-  api.use(apiNotFound);
 
+  // Development only: the mail the local fake SMTP server captured. Never in production.
+  if (config.env !== 'production' && config.mail.fakeSmtp) {
+    app.use(devMailRouter(config.mail.fakeSmtp.mailboxDir));
+  }
+  api.use(apiNotFound);
   app.use('/api', api);
   app.use(webRouter(config.webDir));
   app.use(errorHandler(logError));

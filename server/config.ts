@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { z } from 'zod';
@@ -19,6 +20,26 @@ const envSchema = z.object({
   QB_PG_TEST_PORT: portSchema.default(54321),
   QB_LOG_REQUESTS: flagSchema.optional(),
   QB_DB_TIMEOUT_MS: z.coerce.number().int().positive().default(2000),
+  QB_PUBLIC_URL: z.url().optional(),
+  QB_JWT_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
+  QB_ACCESS_TTL_S: z.coerce.number().int().min(30).max(3600).default(900),
+  QB_REFRESH_TTL_DAYS: z.coerce.number().int().min(1).max(365).default(30),
+  QB_COOKIE_SECURE: flagSchema.optional(),
+  QB_PASSWORD_COST: z.enum(['owasp', 'test']).default('owasp'),
+  QB_RATE_LIMIT_MAX: z.coerce.number().int().min(1).default(10),
+  QB_RATE_LIMIT_WINDOW_MS: z.coerce
+    .number()
+    .int()
+    .min(1000)
+    .default(15 * 60 * 1000),
+  SMTP_HOST: z.string().min(1).optional(),
+  SMTP_PORT: portSchema.optional(),
+  SMTP_SECURE: flagSchema.optional(),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  MAIL_FROM: z.string().min(3).default('Quenchbook <no-reply@quenchbook.invalid>'),
+  QB_FAKE_SMTP_PORT: portSchema.default(2526),
+  QB_MAILBOX_DIR: z.string().min(1).optional(),
 });
 
 export type Config = {
@@ -34,6 +55,27 @@ export type Config = {
   logRequests: boolean;
   dbTimeoutMs: number;
   version: string;
+  /** Base of links in e-mails, e.g. https://quenchbook.example.org */
+  publicUrl: string;
+  auth: {
+    jwtSecret: string;
+    accessTtlSeconds: number;
+    refreshTtlDays: number;
+    cookieSecure: boolean;
+    passwordCost: 'owasp' | 'test';
+    rateLimitMax: number;
+    rateLimitWindowMs: number;
+  };
+  mail: {
+    host: string;
+    port: number;
+    secure: boolean;
+    user: string | undefined;
+    pass: string | undefined;
+    from: string;
+    /** Outside production: a local fake SMTP server captures mail here, shown at /dev/mail. */
+    fakeSmtp: { port: number; mailboxDir: string } | undefined;
+  };
 };
 
 function readVersion(): string {
@@ -50,18 +92,53 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     throw new Error(`Invalid configuration in environment variables:\n${lines.join('\n')}`);
   }
   const e = parsed.data;
+  const production = e.NODE_ENV === 'production';
+  const problems: string[] = [];
+  if (production && !e.QB_JWT_SECRET) problems.push('  QB_JWT_SECRET: required in production');
+  if (production && e.QB_PASSWORD_COST !== 'owasp') {
+    problems.push('  QB_PASSWORD_COST: only "owasp" is allowed in production');
+  }
+  if (production && !e.SMTP_HOST) problems.push('  SMTP_HOST: required in production');
+  if (problems.length) {
+    throw new Error(`Invalid configuration in environment variables:\n${problems.join('\n')}`);
+  }
+  const dataDir = e.QB_DATA_DIR;
+  const fakeSmtp =
+    !production && !e.SMTP_HOST
+      ? { port: e.QB_FAKE_SMTP_PORT, mailboxDir: e.QB_MAILBOX_DIR ?? path.join(dataDir, 'mail') }
+      : undefined;
   return {
     env: e.NODE_ENV,
     host: e.HOST,
     port: e.PORT,
     databaseUrl: e.DATABASE_URL,
-    dataDir: e.QB_DATA_DIR,
+    dataDir,
     webDir: e.QB_WEB_DIR,
     pgPort: e.QB_PG_PORT,
     pgTestPort: e.QB_PG_TEST_PORT,
     logRequests: e.QB_LOG_REQUESTS ?? e.NODE_ENV !== 'test',
     dbTimeoutMs: e.QB_DB_TIMEOUT_MS,
     version: readVersion(),
+    publicUrl: (e.QB_PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, ''),
+    auth: {
+      // Outside production a per-process secret is fine: a restart only forces a token refresh.
+      jwtSecret: e.QB_JWT_SECRET ?? randomBytes(32).toString('base64url'),
+      accessTtlSeconds: e.QB_ACCESS_TTL_S,
+      refreshTtlDays: e.QB_REFRESH_TTL_DAYS,
+      cookieSecure: e.QB_COOKIE_SECURE ?? production,
+      passwordCost: e.QB_PASSWORD_COST,
+      rateLimitMax: e.QB_RATE_LIMIT_MAX,
+      rateLimitWindowMs: e.QB_RATE_LIMIT_WINDOW_MS,
+    },
+    mail: {
+      host: e.SMTP_HOST ?? '127.0.0.1',
+      port: e.SMTP_PORT ?? (fakeSmtp ? fakeSmtp.port : 587),
+      secure: e.SMTP_SECURE ?? false,
+      user: e.SMTP_USER,
+      pass: e.SMTP_PASS,
+      from: e.MAIL_FROM,
+      fakeSmtp,
+    },
   };
 }
 

@@ -1,16 +1,54 @@
-import { labNameSchema, type Lab } from '../../shared/schemas/lab';
-import { LabModel } from '../models';
+import type { Lab } from '../../shared/schemas/lab';
+import type { Role } from '../../shared/schemas/roles';
+import { LabModel, MembershipModel } from '../models';
+import { recordAudit } from './audit';
 
-function toLab(row: LabModel): Lab {
-  return { id: row.id, name: row.name, createdAt: row.createdAt.toISOString() };
+function toLab(row: LabModel, role: Role): Lab {
+  return { id: row.id, name: row.name, createdAt: row.createdAt.toISOString(), role };
 }
 
-export async function createLab(input: { name: string }): Promise<Lab> {
-  const row = await LabModel.create({ name: labNameSchema.parse(input.name) });
-  return toLab(row);
+/** A new lab with its creator as manager. */
+export async function createLab(input: {
+  name: string;
+  creatorId: string;
+  ip?: string | null;
+}): Promise<Lab> {
+  return LabModel.sequelize!.transaction(async (transaction) => {
+    const lab = await LabModel.create({ name: input.name }, { transaction });
+    await MembershipModel.create(
+      { labId: lab.id, userId: input.creatorId, role: 'manager' },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        action: 'lab_created',
+        labId: lab.id,
+        actorId: input.creatorId,
+        ip: input.ip,
+        detail: { name: lab.name },
+      },
+      transaction,
+    );
+    return toLab(lab, 'manager');
+  });
 }
 
-export async function findLabByName(name: string): Promise<Lab | undefined> {
+export async function getLab(labId: string, role: Role): Promise<Lab> {
+  const lab = await LabModel.findByPk(labId);
+  // Membership was checked before this; a vanished lab is simply not found.
+  if (!lab) throw new Error(`lab ${labId} vanished`);
+  return toLab(lab, role);
+}
+
+/** The caller's role in a lab, or undefined when they are not a member (or the lab does not exist). */
+export async function roleIn(labId: string, userId: string): Promise<Role | undefined> {
+  const membership = await MembershipModel.findOne({ where: { labId, userId } });
+  return membership?.role;
+}
+
+export async function findLabByName(
+  name: string,
+): Promise<{ id: string; name: string } | undefined> {
   const row = await LabModel.findOne({ where: { name } });
-  return row ? toLab(row) : undefined;
+  return row ? { id: row.id, name: row.name } : undefined;
 }

@@ -8,6 +8,18 @@ export const errorCodes = [
   'not_found',
   'internal',
   'unavailable',
+  'unauthenticated',
+  'token_expired',
+  'invalid_credentials',
+  'forbidden',
+  'csrf_failed',
+  'rate_limited',
+  'email_taken',
+  'last_manager',
+  'invalid_link',
+  'sign_in_required',
+  'wrong_account',
+  'already_member',
 ] as const;
 
 export const errorCodeSchema = z.enum(errorCodes);

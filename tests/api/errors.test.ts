@@ -1,20 +1,24 @@
 import request from 'supertest';
-import { createApp } from '../../server/app';
 import { errorBodySchema } from '../../shared/schemas/error';
+import { buildApp, type TestApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
 
 let db: TestDatabase;
-let logged: unknown[];
+let built: TestApp;
+let logged: unknown[] = [];
 beforeAll(async () => {
   db = await freshDatabase();
+  built = buildApp(db, { logError: (e) => logged.push(e) });
 });
-afterAll(() => db.drop());
+afterAll(async () => {
+  await built.close();
+  await db.drop();
+});
 beforeEach(() => {
   logged = [];
 });
 
-const app = () =>
-  createApp({ config: db.config, sequelize: db.sequelize, logError: (e) => logged.push(e) });
+const app = () => built.app;
 
 describe('unknown API routes', () => {
   it('answers a JSON 404 with code not_found', async () => {
@@ -27,7 +31,7 @@ describe('unknown API routes', () => {
   });
 
   it('answers a JSON 404 for a write to an unknown route', async () => {
-    const res = await request(app()).post('/api/labs').send({ name: 'x' });
+    const res = await request(app()).post('/api/no-such-write').send({ name: 'x' });
     expect(res.status).toBe(404);
     expect(errorBodySchema.parse(res.body).error.code).toBe('not_found');
   });

@@ -1,20 +1,24 @@
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { createSequelize } from '../../server/db';
+import { buildApp, type TestApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
 import { healthSchema } from '../../shared/schemas/health';
 
 let db: TestDatabase;
+let built: TestApp;
 beforeAll(async () => {
   db = await freshDatabase();
+  built = buildApp(db);
 });
-afterAll(() => db.drop());
+afterAll(async () => {
+  await built.close();
+  await db.drop();
+});
 
 describe('GET /api/health', () => {
   it('answers 200 with the database ok and the package version', async () => {
-    const res = await request(createApp({ config: db.config, sequelize: db.sequelize })).get(
-      '/api/health',
-    );
+    const res = await request(built.app).get('/api/health');
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/application\/json/);
     expect(healthSchema.parse(res.body)).toEqual({
@@ -29,9 +33,7 @@ describe('GET /api/health', () => {
     // when its database is stopped.
     const down = createSequelize('postgres://quenchbook:x@127.0.0.1:1/none');
     try {
-      const res = await request(createApp({ config: db.config, sequelize: down })).get(
-        '/api/health',
-      );
+      const res = await request(createApp({ ...built.deps, sequelize: down })).get('/api/health');
       expect(res.status).toBe(503);
       expect(res.body).toEqual({ status: 'degraded', db: 'down', version: db.config.version });
     } finally {

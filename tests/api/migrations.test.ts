@@ -1,6 +1,7 @@
-import { DEMO_LAB_NAME, loadDemoData } from '../../fixtures/demo';
+import { DEMO_LAB_NAME, demoPeople, loadDemoData } from '../../fixtures/demo';
 import { createMigrator } from '../../server/migrate';
-import { LabModel } from '../../server/models';
+import { LabModel, MembershipModel, UserModel } from '../../server/models';
+import { buildApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
 
 let db: TestDatabase;
@@ -12,7 +13,7 @@ afterAll(() => db.drop());
 describe('migrations', () => {
   it('records migrations by name without the file extension', async () => {
     const [rows] = await db.sequelize.query('SELECT name FROM schema_migrations ORDER BY name');
-    expect(rows).toEqual([{ name: '0001-labs' }]);
+    expect(rows).toEqual([{ name: '0001-labs' }, { name: '0002-accounts' }]);
   });
 
   it('has nothing pending on a migrated database, and can go down and up again', async () => {
@@ -22,14 +23,27 @@ describe('migrations', () => {
     const [tables] = await db.sequelize.query("SELECT to_regclass('public.labs') AS t");
     expect(tables).toEqual([{ t: null }]);
     await migrator.up();
-    expect((await migrator.executed()).map((m) => m.name)).toEqual(['0001-labs']);
+    expect((await migrator.executed()).map((m) => m.name)).toEqual(['0001-labs', '0002-accounts']);
   });
 });
 
 describe('demo data', () => {
-  it('loads the demo lab once and changes nothing on a second run', async () => {
-    expect(await loadDemoData()).toEqual({ loaded: true });
-    expect(await loadDemoData()).toEqual({ loaded: false });
+  it('loads the demo lab and its four people once, and changes nothing on a second run', async () => {
+    const built = buildApp(db);
+    try {
+      expect(await loadDemoData(built.deps)).toEqual({ loaded: true });
+      expect(await loadDemoData(built.deps)).toEqual({ loaded: false });
+    } finally {
+      await built.close();
+    }
     expect(await LabModel.count({ where: { name: DEMO_LAB_NAME } })).toBe(1);
+    const lab = await LabModel.findOne({ where: { name: DEMO_LAB_NAME } });
+    const members = await MembershipModel.findAll({
+      where: { labId: lab!.id },
+      include: [{ model: UserModel, as: 'user' }],
+    });
+    expect(members.map((m) => [m.user!.email, m.role]).sort()).toEqual(
+      demoPeople.map((p) => [p.email, p.role]).sort(),
+    );
   });
 });

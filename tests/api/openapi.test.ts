@@ -1,18 +1,21 @@
 import request from 'supertest';
-import { createApp } from '../../server/app';
+import { buildApp, type TestApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
 
 let db: TestDatabase;
+let built: TestApp;
 beforeAll(async () => {
   db = await freshDatabase();
+  built = buildApp(db);
 });
-afterAll(() => db.drop());
+afterAll(async () => {
+  await built.close();
+  await db.drop();
+});
 
 describe('GET /api/openapi.json', () => {
   it('describes the API as OpenAPI 3.1 from the shared schemas', async () => {
-    const res = await request(createApp({ config: db.config, sequelize: db.sequelize })).get(
-      '/api/openapi.json',
-    );
+    const res = await request(built.app).get('/api/openapi.json');
     expect(res.status).toBe(200);
     expect(res.body.openapi).toBe('3.1.0');
     expect(res.body.info.version).toBe(db.config.version);

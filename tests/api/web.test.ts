@@ -2,14 +2,18 @@ import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
-import { createApp } from '../../server/app';
+import { buildApp, type TestApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
 
 let db: TestDatabase;
+const opened: TestApp[] = [];
 beforeAll(async () => {
   db = await freshDatabase();
 });
-afterAll(() => db.drop());
+afterAll(async () => {
+  for (const b of opened) await b.close();
+  await db.drop();
+});
 
 function webDirWith(files: Record<string, string>): string {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'qb-web-'));
@@ -20,8 +24,11 @@ function webDirWith(files: Record<string, string>): string {
   return dir;
 }
 
-const appFor = (webDir: string) =>
-  createApp({ config: { ...db.config, webDir }, sequelize: db.sequelize });
+const appFor = (webDir: string) => {
+  const built = buildApp(db, { config: { webDir } });
+  opened.push(built);
+  return built.app;
+};
 
 describe('the web app', () => {
   const webDir = webDirWith({

@@ -1,4 +1,6 @@
+import path from 'node:path';
 import { loadConfig } from '../../server/config';
+import { startFakeSmtp } from '../../server/mail/fake-smtp';
 import { createSequelize } from '../../server/db';
 import { migrateUp } from '../../server/migrate';
 import { testCluster } from '../../scripts/local-db';
@@ -20,4 +22,11 @@ export default async function globalSetup(): Promise<void> {
     await sequelize.close();
   }
   process.env.NODE_ENV = 'test';
+
+  // One mail catcher for the run; test files read what it captured from the mailbox folder.
+  const mailboxDir = path.join(config.dataDir, 'mail-test');
+  const smtp = await startFakeSmtp({ port: 0, mailboxDir });
+  process.env.QB_FAKE_SMTP_PORT = String(smtp.port);
+  process.env.QB_MAILBOX_DIR = mailboxDir;
+  (globalThis as { qbTestSmtp?: typeof smtp }).qbTestSmtp = smtp;
 }

@@ -5,6 +5,7 @@ import { databaseUrl, dropDatabase, stopCluster } from '../../scripts/pg-cluster
 import { TEST_DB_PREFIX } from '../support/db';
 
 export default async function globalTeardown(): Promise<void> {
+  await (globalThis as { qbTestSmtp?: { close: () => Promise<void> } }).qbTestSmtp?.close();
   const config = loadConfig({ ...process.env, NODE_ENV: 'test' });
   const cluster = testCluster(config);
   // Databases a crashed test file left behind.

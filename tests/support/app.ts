@@ -1,23 +1,77 @@
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import type { Express } from 'express';
 import { createApp } from '../../server/app';
+import type { Config } from '../../server/config';
+import { createMailer, type Mailer } from '../../server/mail/sender';
+import { TEST_ARGON2ID } from '../../server/passwords/cost';
+import { createPasswordHasher, type PasswordHasher } from '../../server/passwords/hasher';
+import type { ServiceDeps } from '../../server/services/deps';
 import type { TestDatabase } from './db';
+
+export type TestApp = {
+  app: Express;
+  deps: ServiceDeps;
+  config: Config;
+  close: () => Promise<void>;
+};
+
+function mailerFor(config: Config): Mailer {
+  return createMailer({
+    host: config.mail.host,
+    port: config.mail.port,
+    secure: false,
+    from: config.mail.from,
+  });
+}
+
+/** createApp with the real services: cheap hashing, mail to the run's mail catcher. */
+export function buildApp(
+  db: TestDatabase,
+  options: {
+    config?: Partial<Config>;
+    logError?: (err: unknown) => void;
+    hasher?: PasswordHasher;
+  } = {},
+): TestApp {
+  const config: Config = { ...db.config, ...options.config };
+  const hasher = options.hasher ?? createPasswordHasher({ cost: TEST_ARGON2ID });
+  const mailer = mailerFor(config);
+  const app = createApp({
+    config,
+    sequelize: db.sequelize,
+    hasher,
+    mailer,
+    logError: options.logError,
+  });
+  return {
+    app,
+    config,
+    deps: { config, hasher, mailer },
+    close: async () => {
+      mailer.close();
+      if (!options.hasher) await hasher.close();
+    },
+  };
+}
 
 /** The real server on a free loopback port, serving the built web app. */
 export async function startTestServer(
   db: TestDatabase,
-): Promise<{ url: string; close: () => Promise<void> }> {
-  const app = createApp({ config: db.config, sequelize: db.sequelize });
+  options: { config?: Partial<Config> } = {},
+): Promise<{ url: string; deps: ServiceDeps; close: () => Promise<void> }> {
+  const built = buildApp(db, options);
   const server: Server = await new Promise((resolve) => {
-    const s = app.listen(0, '127.0.0.1', () => resolve(s));
+    const s = built.app.listen(0, '127.0.0.1', () => resolve(s));
   });
   const { port } = server.address() as AddressInfo;
   return {
     url: `http://127.0.0.1:${port}`,
-    close: () =>
-      new Promise((resolve) => {
-        server.closeAllConnections();
-        server.close(() => resolve());
-      }),
+    deps: built.deps,
+    close: async () => {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await built.close();
+    },
   };
 }

@@ -15,6 +15,11 @@ export type TestDatabase = {
   drop: () => Promise<void>;
 };
 
+/** Cheap password hashing and a rate limit that ordinary tests never reach. */
+function testConfig(config: Config): Config {
+  return { ...config, auth: { ...config.auth, passwordCost: 'test', rateLimitMax: 100_000 } };
+}
+
 /** A migrated database of this test file's own, copied from the template made in global setup. */
 export async function freshDatabase(): Promise<TestDatabase> {
   const config = loadConfig({ ...process.env, NODE_ENV: 'test' });
@@ -26,7 +31,7 @@ export async function freshDatabase(): Promise<TestDatabase> {
   return {
     url,
     sequelize,
-    config: { ...config, databaseUrl: url },
+    config: testConfig({ ...config, databaseUrl: url }),
     drop: async () => {
       await sequelize.close();
       await dropDatabase(cluster, name);
