@@ -35,15 +35,13 @@ export function labsRouter(deps: ServiceDeps): Router {
   });
 
   router.post('/labs', validate({ body: createLabSchema }), async (req, res) => {
-    res
-      .status(201)
-      .json(
-        await createLab({
-          name: res.locals.body.name,
-          creatorId: authOf(res).user.id,
-          ip: metaOf(req).ip,
-        }),
-      );
+    res.status(201).json(
+      await createLab({
+        name: res.locals.body.name,
+        creatorId: authOf(res).user.id,
+        ip: metaOf(req).ip,
+      }),
+    );
   });
 
   router.get('/labs/:labId', requireLab('read'), async (_req, res) => {

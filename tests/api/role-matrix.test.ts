@@ -39,6 +39,8 @@ afterAll(async () => {
   await db.drop();
 });
 
+const call = (method: Route['method'], path: string) => request(t.app)[method](path);
+
 type Capability = 'read' | 'manage';
 type Route = {
   name: string;
@@ -158,10 +160,7 @@ describe('lab routes by role', () => {
   it.each(routes)('$name for a lab id that does not exist → 404', async (route) => {
     const { path, body } = await route.prepare(labs.own);
     const missing = path.replace(labs.own.id, '00000000-0000-4000-8000-000000000000');
-    const res = await request(t.app)
-      [route.method](missing)
-      .set(bearer(labs.own.manager.token))
-      .send(body);
+    const res = await call(route.method, missing).set(bearer(labs.own.manager.token)).send(body);
     expect(res.status).toBe(404);
   });
 });
