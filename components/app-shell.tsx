@@ -2,22 +2,27 @@ import { Link, usePathname } from 'expo-router';
 import type { ReactNode } from 'react';
 import { Pressable, ScrollView, StyleSheet, useWindowDimensions, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
-import { sections, type Section } from './sections';
+import { useLab } from './lab-context';
+import { LabSwitcher } from './lab-switcher';
+import { sectionPath, sections, type Section } from './sections';
 import { colors, fonts, space, WIDE_BREAKPOINT } from './theme';
 import { AppText } from './ui/text';
 
-function isActive(section: Section, pathname: string): boolean {
-  const href = String(section.href);
-  return href === '/' ? pathname === '/' : pathname === href || pathname.startsWith(`${href}/`);
+type NavTarget = { key: string; title: string; path: string; exact: boolean };
+
+function isActive(target: NavTarget, pathname: string): boolean {
+  return target.exact
+    ? pathname === target.path
+    : pathname === target.path || pathname.startsWith(`${target.path}/`);
 }
 
-function NavItem({ section, wide }: { section: Section; wide: boolean }) {
+function NavItem({ target, wide }: { target: NavTarget; wide: boolean }) {
   const pathname = usePathname();
-  const active = isActive(section, pathname);
+  const active = isActive(target, pathname);
   return (
-    <Link href={section.href} asChild>
+    <Link href={target.path as never} asChild>
       <Pressable
-        testID={`nav-${section.key}`}
+        testID={`nav-${target.key}`}
         aria-current={active ? 'page' : undefined}
         // Link's asChild merges props onto the DOM node, which cannot take a style array.
         style={StyleSheet.flatten([
@@ -33,18 +38,35 @@ function NavItem({ section, wide }: { section: Section; wide: boolean }) {
             { color: active ? colors.navActiveText : colors.navText },
           ]}
         >
-          {section.title}
+          {target.title}
         </AppText>
       </Pressable>
     </Link>
   );
 }
 
+const toTarget =
+  (labId: string) =>
+  (s: Section): NavTarget => ({
+    key: s.key,
+    title: s.title,
+    path: sectionPath(labId, s),
+    exact: s.segment === '',
+  });
+
 /** Phone first: bottom tabs on narrow windows, a side bar on wide ones. */
 export function AppShell({ children }: { children: ReactNode }) {
   const { width } = useWindowDimensions();
   const insets = useSafeAreaInsets();
+  const { lab } = useLab();
   const wide = width >= WIDE_BREAKPOINT;
+  const targets = sections.map(toTarget(lab.id));
+  const account: NavTarget = {
+    key: 'account',
+    title: 'Account',
+    path: `/labs/${lab.id}/account`,
+    exact: true,
+  };
 
   const content = (
     <ScrollView
@@ -62,9 +84,15 @@ export function AppShell({ children }: { children: ReactNode }) {
           <AppText style={styles.wordmark} accessibilityRole="header">
             Quenchbook
           </AppText>
-          {sections.map((s) => (
-            <NavItem key={s.key} section={s} wide />
-          ))}
+          <LabSwitcher />
+          <View style={styles.sideList}>
+            {targets.map((t) => (
+              <NavItem key={t.key} target={t} wide />
+            ))}
+          </View>
+          <View style={styles.sideBottom}>
+            <NavItem target={account} wide />
+          </View>
         </View>
         {content}
       </View>
@@ -74,15 +102,22 @@ export function AppShell({ children }: { children: ReactNode }) {
   return (
     <View style={[styles.root, { paddingTop: insets.top }]}>
       <View style={styles.topBar}>
-        <AppText style={styles.wordmarkSmall}>Quenchbook</AppText>
+        <View style={styles.topLeft}>
+          <LabSwitcher compact />
+        </View>
+        <Link href={account.path as never} testID="nav-account" style={styles.accountLink}>
+          <AppText variant="label" style={{ color: colors.navText }}>
+            Account
+          </AppText>
+        </Link>
       </View>
       {content}
       <View
         style={[styles.tabs, { paddingBottom: Math.max(insets.bottom, space.xs) }]}
         role="navigation"
       >
-        {sections.map((s) => (
-          <NavItem key={s.key} section={s} wide={false} />
+        {targets.map((t) => (
+          <NavItem key={t.key} target={t} wide={false} />
         ))}
       </View>
     </View>
@@ -93,17 +128,19 @@ const styles = StyleSheet.create({
   root: { flex: 1, backgroundColor: colors.paper },
   row: { flexDirection: 'row' },
   side: {
-    width: 228,
+    width: 236,
     backgroundColor: colors.navBg,
     paddingHorizontal: space.md,
-    gap: space.xs,
+    paddingBottom: space.lg,
+    gap: space.lg,
   },
+  sideList: { gap: space.xs },
+  sideBottom: { marginTop: 'auto' },
   wordmark: {
     fontFamily: fonts.bold,
     fontSize: 24,
     color: colors.navText,
     paddingHorizontal: space.md,
-    marginBottom: space.xl,
   },
   sideItem: {
     minHeight: 48,
@@ -114,10 +151,15 @@ const styles = StyleSheet.create({
   sideLabel: { fontSize: 18 },
   topBar: {
     backgroundColor: colors.navBg,
-    paddingHorizontal: space.lg,
+    paddingHorizontal: space.md,
     paddingVertical: space.sm,
+    flexDirection: 'row',
+    alignItems: 'flex-start',
+    justifyContent: 'space-between',
+    gap: space.md,
   },
-  wordmarkSmall: { fontFamily: fonts.bold, fontSize: 19, color: colors.navText },
+  topLeft: { flexShrink: 1 },
+  accountLink: { paddingVertical: space.sm, paddingHorizontal: space.xs },
   tabs: {
     flexDirection: 'row',
     backgroundColor: colors.navBg,
@@ -137,5 +179,5 @@ const styles = StyleSheet.create({
   itemActive: { backgroundColor: colors.navActiveBg },
   content: { flex: 1 },
   contentInner: { padding: space.lg, paddingBottom: space.xxl, gap: space.lg },
-  contentInnerWide: { padding: space.xxl, maxWidth: 880, width: '100%' },
+  contentInnerWide: { padding: space.xxl, maxWidth: 920, width: '100%' },
 });

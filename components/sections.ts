@@ -1,9 +1,8 @@
-import type { Href } from 'expo-router';
-
 export type Section = {
   key: string;
   title: string;
-  href: Href;
+  /** The path inside a lab: /labs/<labId>/<segment> ('' is the lab's home, Today). */
+  segment: string;
   /** One plain sentence of what the section holds. */
   summary: string;
   /** What the section will let you do, in the order a user meets it. */
@@ -14,7 +13,7 @@ export const sections: Section[] = [
   {
     key: 'today',
     title: 'Today',
-    href: '/',
+    segment: '',
     summary:
       'Your day at the bench: what is soaking or drying, what is left to finish, what waits for review.',
     holds: [
@@ -26,7 +25,7 @@ export const sections: Section[] = [
   {
     key: 'recipes',
     title: 'Recipes',
-    href: '/recipes',
+    segment: 'recipes',
     summary:
       'Soak recipes: which retardant salts, how much, and how to soak, drain, dry and condition.',
     holds: [
@@ -39,7 +38,7 @@ export const sections: Section[] = [
   {
     key: 'batches',
     title: 'Batches',
-    href: '/batches',
+    segment: 'batches',
     summary: 'Each preparation of a recipe: what was weighed, by whom and when.',
     holds: [
       'Amounts to weigh for the batch size you need, in metric or US units',
@@ -51,7 +50,7 @@ export const sections: Section[] = [
   {
     key: 'burn-tests',
     title: 'Burn tests',
-    href: '/burn-tests',
+    segment: 'burn-tests',
     summary:
       'Paired burn tests: a treated specimen beside an untreated control under the same conditions.',
     holds: [
@@ -64,7 +63,7 @@ export const sections: Section[] = [
   {
     key: 'rankings',
     title: 'Rankings',
-    href: '/rankings',
+    segment: 'rankings',
     summary: "Treatments ranked by char length, with honest intervals and your lab's criteria.",
     holds: [
       'Treated against control for every treatment, with 95 % confidence intervals',
@@ -76,7 +75,7 @@ export const sections: Section[] = [
   {
     key: 'lab',
     title: 'Lab',
-    href: '/lab',
+    segment: 'lab',
     summary: "Your team's workspace: members, roles, criteria profiles and the audit log.",
     holds: [
       'Members as manager, technician, reviewer or viewer, and invitations',
@@ -86,6 +85,11 @@ export const sections: Section[] = [
     ],
   },
 ];
+
+/** Where a section lives in a lab: deep links carry the lab. */
+export function sectionPath(labId: string, section: Section): string {
+  return section.segment ? `/labs/${labId}/${section.segment}` : `/labs/${labId}`;
+}
 
 export function sectionByKey(key: string): Section {
   const found = sections.find((s) => s.key === key);

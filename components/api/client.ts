@@ -17,14 +17,22 @@ export class ApiError extends Error {
   }
 }
 
+type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
 type RequestOptions = {
-  method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+  method?: Method;
   body?: unknown;
   signal?: AbortSignal;
   /** Non-2xx statuses whose body is still a valid answer (e.g. 503 from health). */
   acceptStatuses?: number[];
   baseUrl?: string;
 };
+
+// The session's CSRF token, from /api/me or a sign-in answer; sent with every write.
+let csrfToken: string | undefined;
+export function setCsrfToken(token: string | undefined): void {
+  csrfToken = token;
+}
 
 async function readJson(res: Response): Promise<unknown> {
   const text = await res.text();
@@ -36,22 +44,22 @@ async function readJson(res: Response): Promise<unknown> {
   }
 }
 
-/** The one way the client talks to the API: JSON in, schema-checked JSON out, ApiError on failure. */
-export async function apiRequest<S extends z.ZodType>(
+async function send(
   path: string,
-  schema: S,
-  { method = 'GET', body, signal, acceptStatuses = [], baseUrl = apiBaseUrl }: RequestOptions = {},
-): Promise<z.infer<S>> {
-  let res: Response;
+  method: Method,
+  body: unknown,
+  signal: AbortSignal | undefined,
+  baseUrl: string,
+) {
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  if (body !== undefined) headers['Content-Type'] = 'application/json';
+  if (method !== 'GET' && csrfToken) headers['X-CSRF-Token'] = csrfToken;
   try {
-    res = await fetch(`${baseUrl}${path}`, {
+    return await fetch(`${baseUrl}${path}`, {
       method,
       signal,
       credentials: 'include',
-      headers:
-        body === undefined
-          ? { Accept: 'application/json' }
-          : { Accept: 'application/json', 'Content-Type': 'application/json' },
+      headers,
       body: body === undefined ? undefined : JSON.stringify(body),
     });
   } catch (err) {
@@ -61,6 +69,31 @@ export async function apiRequest<S extends z.ZodType>(
       'network',
       'Cannot reach the Quenchbook server. Check the connection and try again.',
     );
+  }
+}
+
+// One refresh at a time, shared by every request that found its sign-in expired.
+let refreshing: Promise<boolean> | undefined;
+function refreshSession(baseUrl: string): Promise<boolean> {
+  refreshing ??= send('/api/auth/refresh', 'POST', {}, undefined, baseUrl)
+    .then((res) => res.ok)
+    .catch(() => false)
+    .finally(() => {
+      refreshing = undefined;
+    });
+  return refreshing;
+}
+
+/** The one way the client talks to the API: JSON in, schema-checked JSON out, ApiError on failure. */
+export async function apiRequest<S extends z.ZodType>(
+  path: string,
+  schema: S,
+  { method = 'GET', body, signal, acceptStatuses = [], baseUrl = apiBaseUrl }: RequestOptions = {},
+): Promise<z.infer<S>> {
+  let res = await send(path, method, body, signal, baseUrl);
+  // The short-lived access cookie may have lapsed: renew it from the refresh cookie once.
+  if (res.status === 401 && !path.startsWith('/api/auth/') && (await refreshSession(baseUrl))) {
+    res = await send(path, method, body, signal, baseUrl);
   }
   const json = await readJson(res);
   if (res.ok || acceptStatuses.includes(res.status)) {

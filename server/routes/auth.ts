@@ -4,6 +4,7 @@ import {
   changePasswordSchema,
   refreshSchema,
   resetConfirmSchema,
+  sessionStateSchema,
   resetRequestSchema,
   signedInSchema,
   signInSchema,
@@ -11,7 +12,7 @@ import {
   type SignedIn,
 } from '../../shared/schemas/auth';
 import { AppError } from '../errors';
-import { authenticate, authOf, metaOf, REFRESH_COOKIE } from '../middleware/auth';
+import { authenticate, authOf, metaOf, REFRESH_COOKIE, type Auth } from '../middleware/auth';
 import { limitTries } from '../middleware/rate-limit';
 import { validate } from '../middleware/validate';
 import type { ApiDocs } from '../openapi';
@@ -79,6 +80,29 @@ export function authRouter(deps: ServiceDeps): Router {
       await respondSignedIn(res, deps, tokens, input.tokenDelivery);
     },
   );
+
+  // The web app asks this on load: it renews an expired access cookie from the refresh cookie,
+  // and answers "nobody" with a 200 rather than a 401.
+  router.get('/auth/session', authenticate(config, { optional: true }), async (req, res) => {
+    const auth = res.locals.auth as Auth | undefined;
+    if (auth) {
+      res.json({ me: await describeMe(deps, auth.user.id, auth.sessionId) });
+      return;
+    }
+    const refresh = (req.cookies as Record<string, string | undefined>)[REFRESH_COOKIE];
+    if (refresh) {
+      try {
+        const tokens = await rotateSession(config, refresh);
+        setSessionCookies(res, config, tokens);
+        res.json({ me: await describeMe(deps, tokens.userId, tokens.sessionId) });
+        return;
+      } catch (err) {
+        if (!(err instanceof AppError && err.status === 401)) throw err;
+        clearSessionCookies(res, config);
+      }
+    }
+    res.json({ me: null });
+  });
 
   router.post('/auth/refresh', validate({ body: refreshSchema }), async (req, res) => {
     const input = res.locals.body as z.infer<typeof refreshSchema>;

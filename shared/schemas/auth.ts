@@ -102,6 +102,11 @@ export const meSchema = z
   .meta({ id: 'Me' });
 export type Me = z.infer<typeof meSchema>;
 
+/** The web app's first question: who is signed in here, if anyone (never a 401). */
+export const sessionStateSchema = z
+  .object({ me: meSchema.nullable() })
+  .meta({ id: 'SessionState' });
+
 export const signedInSchema = z
   .object({
     me: meSchema,

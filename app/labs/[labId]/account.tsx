@@ -1,0 +1,5 @@
+import { AccountScreen } from '@/components/account-screen';
+
+export default function AccountRoute() {
+  return <AccountScreen />;
+}

@@ -1,0 +1,5 @@
+import { MembersScreen } from '@/components/lab/members-screen';
+
+export default function LabRoute() {
+  return <MembersScreen />;
+}

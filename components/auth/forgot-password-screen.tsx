@@ -1,0 +1,56 @@
+import { useState } from 'react';
+import { resetRequestSchema } from '../../shared/schemas/auth';
+import { useRequestResetMutation } from '../api/session';
+import { Banner } from '../ui/banner';
+import { Button } from '../ui/button';
+import { FormStack, FormTextField, serverErrorToForm, useZodForm } from '../ui/form';
+import { AuthFrame, FrameLink } from './auth-frame';
+
+export function ForgotPasswordScreen() {
+  const form = useZodForm(resetRequestSchema, { email: '' });
+  const request = useRequestResetMutation();
+  const [banner, setBanner] = useState<string>();
+
+  const submit = form.handleSubmit(async (values) => {
+    setBanner(undefined);
+    try {
+      await request.mutateAsync(values);
+    } catch (err) {
+      setBanner(serverErrorToForm(form, err));
+    }
+  });
+
+  return (
+    <AuthFrame
+      title="Reset your password"
+      intro="We will e-mail you a link to choose a new password. It works once, for 30 minutes."
+    >
+      {request.isSuccess ? (
+        <Banner
+          tone="success"
+          testID="reset-sent"
+          message="If this address has an account, the link is on its way. Check your inbox (and the spam folder)."
+        />
+      ) : (
+        <FormStack banner={banner}>
+          <FormTextField
+            control={form.control}
+            name="email"
+            label="E-mail"
+            autoComplete="email"
+            keyboardType="email-address"
+            autoCapitalize="none"
+            inputMode="email"
+          />
+          <Button
+            label="Send the link"
+            onPress={() => void submit()}
+            busy={request.isPending}
+            testID="reset-request-submit"
+          />
+        </FormStack>
+      )}
+      <FrameLink href="/sign-in" label="Back to sign in" />
+    </AuthFrame>
+  );
+}
