@@ -1,4 +1,4 @@
-import { Redirect, usePathname } from 'expo-router';
+import { Redirect } from 'expo-router';
 import type { ReactNode } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 import { bannerMessage } from './api/error-messages';
@@ -6,6 +6,7 @@ import { useMeQuery } from './api/session';
 import { AuthFrame, FrameLink } from './auth/auth-frame';
 import { LabProvider } from './lab-context';
 import { colors } from './theme';
+import { useRequestedPath } from './use-requested-path';
 import { Banner } from './ui/banner';
 import { Button } from './ui/button';
 
@@ -22,7 +23,7 @@ export function Loading() {
  * afterwards. Not a member (or no such lab): say so, with a way to one's own labs.
  */
 export function LabGate({ labId, children }: { labId: string; children: ReactNode }) {
-  const pathname = usePathname();
+  const pathname = useRequestedPath();
   const me = useMeQuery();
   if (me.isPending) return <Loading />;
   if (me.error) {

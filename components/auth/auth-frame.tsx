@@ -21,7 +21,11 @@ export function AuthFrame({
         <AppText variant="title" accessibilityRole="header" aria-level={1} testID="screen-title">
           {title}
         </AppText>
-        {intro ? <AppText tone="muted">{intro}</AppText> : null}
+        {intro ? (
+          <AppText tone="muted" testID="screen-intro">
+            {intro}
+          </AppText>
+        ) : null}
         {children}
       </View>
     </ScrollView>

@@ -199,6 +199,14 @@ export function registerAuthDocs(docs: ApiDocs): void {
     errors: [400, 401, 429],
   });
   documentPath(docs, {
+    method: 'get',
+    path: '/api/auth/session',
+    summary:
+      'Who is signed in; renews the access cookie from the refresh cookie; me is null when nobody',
+    access: anyone,
+    ok: { status: 200, schema: sessionStateSchema, description: 'The session, or { me: null }' },
+  });
+  documentPath(docs, {
     method: 'post',
     path: '/api/auth/refresh',
     summary: 'Swap a refresh token (cookie or body) for new tokens',

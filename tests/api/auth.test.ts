@@ -379,3 +379,27 @@ describe('rate limits', () => {
     }
   });
 });
+
+describe('GET /api/auth/session', () => {
+  it('answers 200 with me null when nobody is signed in', async () => {
+    const res = await request(t.app).get('/api/auth/session');
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ me: null });
+  });
+
+  it('renews the sign-in from the refresh cookie alone, as after the access cookie lapsed', async () => {
+    const signUp = await request(t.app)
+      .post('/api/auth/sign-up')
+      .send({ email: uniqueEmail(), password: PASSWORD, displayName: 'Fay', labName: 'Wood lab' });
+    const refresh = cookiesOf(signUp)
+      .find((c) => c.startsWith('qb_refresh='))!
+      .split(';')[0]!;
+    const res = await request(t.app).get('/api/auth/session').set('Cookie', refresh);
+    expect(res.status).toBe(200);
+    expect(res.body.me.user.displayName).toBe('Fay');
+    expect(cookiesOf(res).some((c) => c.startsWith('qb_access='))).toBe(true);
+    // The refresh token was rotated: the old one no longer works.
+    const again = await request(t.app).get('/api/auth/session').set('Cookie', refresh);
+    expect(again.body).toEqual({ me: null });
+  });
+});

@@ -28,4 +28,38 @@ describe('GET /api/openapi.json', () => {
     expect(res.body.components.schemas.Health.properties.db.enum).toEqual(['ok', 'down']);
     expect(res.body.components.schemas.Error.required).toEqual(['error']);
   });
+
+  it('documents every account and lab route with its method', async () => {
+    const res = await request(built.app).get('/api/openapi.json');
+    const documented = Object.entries(res.body.paths as Record<string, object>).flatMap(
+      ([path, ops]) => Object.keys(ops).map((method) => `${method.toUpperCase()} ${path}`),
+    );
+    expect(documented.sort()).toEqual(
+      [
+        'GET /api/health',
+        'POST /api/auth/sign-up',
+        'POST /api/auth/sign-in',
+        'GET /api/auth/session',
+        'POST /api/auth/refresh',
+        'POST /api/auth/sign-out',
+        'POST /api/auth/sign-out-everywhere',
+        'POST /api/auth/password',
+        'POST /api/auth/password-reset/request',
+        'POST /api/auth/password-reset/confirm',
+        'GET /api/me',
+        'PATCH /api/me',
+        'GET /api/invitations/{token}',
+        'POST /api/invitations/{token}/accept',
+        'POST /api/labs',
+        'GET /api/labs/{labId}',
+        'GET /api/labs/{labId}/members',
+        'PATCH /api/labs/{labId}/members/{userId}',
+        'DELETE /api/labs/{labId}/members/{userId}',
+        'GET /api/labs/{labId}/invitations',
+        'POST /api/labs/{labId}/invitations',
+        'DELETE /api/labs/{labId}/invitations/{invitationId}',
+        'GET /api/labs/{labId}/audit',
+      ].sort(),
+    );
+  });
 });

@@ -1,22 +1,25 @@
 import type { Browser } from 'playwright-core';
-import { sections } from '../../components/sections';
+import { sectionPath, sections } from '../../components/sections';
 import { ensureWebBuild } from '../../scripts/web-build';
 import { startTestServer } from '../support/app';
 import { launchBrowser, viewports } from '../support/browser';
 import { freshDatabase, type TestDatabase } from '../support/db';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
+import { seedLab, signInThroughUi } from '../support/ui';
 
 jest.setTimeout(240_000);
 
 let db: TestDatabase;
-let server: { url: string; close: () => Promise<void> };
+let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
+let seeded: Awaited<ReturnType<typeof seedLab>>;
 
 beforeAll(async () => {
   db = await freshDatabase();
   ensureWebBuild(db.config.webDir);
   server = await startTestServer(db);
+  seeded = await seedLab(server.deps, 'Shell lab');
   browser = await launchBrowser();
 });
 
@@ -28,9 +31,10 @@ afterAll(async () => {
 
 describe.each(Object.entries(viewports))('the app shell at %s size', (name, viewport) => {
   it('reaches every section from its navigation with no console errors', async () => {
-    const page = await browser.newPage({ viewport });
+    const context = await browser.newContext({ viewport });
+    const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await page.goto(`${server.url}/`);
+    await signInThroughUi(page, server.url, seeded.people.technician.email);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
 
     // Phone: tabs along the bottom edge. Wide: a bar down the left side.
@@ -41,23 +45,30 @@ describe.each(Object.entries(viewports))('the app shell at %s size', (name, view
     for (const section of sections) {
       await page.getByTestId(`nav-${section.key}`).click();
       await page.getByTestId('section-title').filter({ hasText: section.title }).waitFor();
-      expect(new URL(page.url()).pathname).toBe(String(section.href));
+      expect(new URL(page.url()).pathname).toBe(sectionPath(seeded.labId, section));
       await expect(
         page.getByTestId(`nav-${section.key}`).getAttribute('aria-current'),
       ).resolves.toBe('page');
       await screenshot(page, `shell-${name}-${section.key}`);
     }
+    await page.getByTestId('nav-account').click();
+    await page.getByTestId('section-title').filter({ hasText: 'Account' }).waitFor();
+    await screenshot(page, `shell-${name}-account`);
     expect(errors).toEqual([]);
-    await page.close();
+    await context.close();
   });
 
   it('sets body text in Source Sans 3, loaded from the app itself', async () => {
     const page = await browser.newPage({ viewport });
-    await page.goto(`${server.url}/recipes`);
-    const intro = page.getByTestId('section-intro');
+    await page.goto(`${server.url}/sign-up`);
+    const intro = page.getByTestId('screen-intro');
     await intro.waitFor();
     const family = await intro.evaluate((el) => getComputedStyle(el).fontFamily);
     expect(family.split(',')[0]).toBe('"Source Sans 3"');
+    const label = await page
+      .getByText('Lab name', { exact: true })
+      .evaluate((el) => getComputedStyle(el).fontFamily);
+    expect(label.split(',')[0]).toBe('"Source Sans 3 SemiBold"');
     const loaded = await page.evaluate(async () => {
       await document.fonts.ready;
       const faces: FontFace[] = [];
@@ -72,13 +83,21 @@ describe.each(Object.entries(viewports))('the app shell at %s size', (name, view
 });
 
 describe('links', () => {
-  it('opens a deep link straight on its section', async () => {
-    const page = await browser.newPage({ viewport: viewports.phone });
+  it('sends a signed-out deep link to sign-in, then back to the same page', async () => {
+    const context = await browser.newContext({ viewport: viewports.phone });
+    const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await page.goto(`${server.url}/rankings`);
+    const deep = `/labs/${seeded.labId}/rankings`;
+    await page.goto(`${server.url}${deep}`);
+    await page.getByTestId('screen-title').filter({ hasText: 'Sign in' }).waitFor();
+    expect(new URL(page.url()).searchParams.get('next')).toBe(deep);
+    await page.getByTestId('field-email').fill(seeded.people.viewer.email);
+    await page.getByTestId('field-password').fill('correct horse battery');
+    await page.getByTestId('sign-in-submit').click();
     await page.getByTestId('section-title').filter({ hasText: 'Rankings' }).waitFor();
+    expect(new URL(page.url()).pathname).toBe(deep);
     expect(errors).toEqual([]);
-    await page.close();
+    await context.close();
   });
 
   it('shows a plain not-found page with a way home for an unknown link', async () => {
@@ -87,17 +106,18 @@ describe('links', () => {
     await page.getByText('No such page').waitFor();
     await screenshot(page, 'not-found-wide');
     await page.getByTestId('not-found-home').click();
-    await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
+    await page.getByTestId('screen-title').filter({ hasText: 'Sign in' }).waitFor();
     await page.close();
   });
 
   it('reports the server and database as up on Today', async () => {
-    const page = await browser.newPage({ viewport: viewports.phone });
-    await page.goto(`${server.url}/`);
+    const context = await browser.newContext({ viewport: viewports.phone });
+    const page = await context.newPage();
+    await signInThroughUi(page, server.url, seeded.people.reviewer.email);
     await page
       .getByTestId('server-status')
       .getByText(/Server and database are up/)
       .waitFor();
-    await page.close();
+    await context.close();
   });
 });

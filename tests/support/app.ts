@@ -1,4 +1,4 @@
-import type { Server } from 'node:http';
+import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { Express } from 'express';
 import { createApp } from '../../server/app';
@@ -55,18 +55,22 @@ export function buildApp(
   };
 }
 
-/** The real server on a free loopback port, serving the built web app. */
+/**
+ * The real server on a free loopback port, serving the built web app. Links in its e-mails
+ * point at that port.
+ */
 export async function startTestServer(
   db: TestDatabase,
   options: { config?: Partial<Config> } = {},
 ): Promise<{ url: string; deps: ServiceDeps; close: () => Promise<void> }> {
-  const built = buildApp(db, options);
-  const server: Server = await new Promise((resolve) => {
-    const s = built.app.listen(0, '127.0.0.1', () => resolve(s));
-  });
+  const server = http.createServer();
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   const { port } = server.address() as AddressInfo;
+  const url = `http://127.0.0.1:${port}`;
+  const built = buildApp(db, { config: { ...options.config, publicUrl: url } });
+  server.on('request', built.app);
   return {
-    url: `http://127.0.0.1:${port}`,
+    url,
     deps: built.deps,
     close: async () => {
       server.closeAllConnections();
