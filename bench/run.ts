@@ -1,0 +1,13 @@
+import { benchHealthDuringSignIns } from './health-during-sign-ins';
+
+// npm run bench: every benchmark, each printing its figures against a baseline measured in
+// the same run. Exits non-zero when a target is missed.
+async function main(): Promise<void> {
+  const results = [await benchHealthDuringSignIns()];
+  process.exit(results.every(Boolean) ? 0 : 1);
+}
+
+main().catch((err: unknown) => {
+  console.error(err);
+  process.exit(1);
+});

@@ -1,0 +1,104 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import http from 'node:http';
+import net from 'node:net';
+import { childEnv, loadConfig, repoRoot } from '../server/config';
+import { testCluster } from '../scripts/local-db';
+import {
+  databaseUrl,
+  dropDatabase,
+  ensureDatabase,
+  startCluster,
+  stopCluster,
+} from '../scripts/pg-cluster';
+
+export function freePort(): Promise<number> {
+  return new Promise((resolve) => {
+    const s = net.createServer().listen(0, '127.0.0.1', () => {
+      const { port } = s.address() as net.AddressInfo;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+/** A throwaway database in the tests' private cluster, for one benchmark. */
+export async function benchDatabase(name: string) {
+  const config = loadConfig({ ...process.env, NODE_ENV: 'test' });
+  const cluster = testCluster(config);
+  const started = (await startCluster(cluster)) === 'started';
+  await dropDatabase(cluster, name);
+  await ensureDatabase(cluster, name);
+  return {
+    url: databaseUrl(cluster, name),
+    drop: async () => {
+      await dropDatabase(cluster, name);
+      if (started) stopCluster(cluster);
+    },
+  };
+}
+
+/** The real server in its own process, so the load generator does not share its event loop. */
+export async function startServerProcess(
+  env: Record<string, string>,
+): Promise<{ url: string; stop: () => void }> {
+  const port = await freePort();
+  const child: ChildProcess = spawn('npx', ['tsx', 'scripts/dev-api.ts'], {
+    cwd: repoRoot,
+    // Its own process group, so stopping reaches the node process behind npx.
+    detached: true,
+    stdio: ['ignore', 'pipe', 'inherit'],
+    env: childEnv({ ...env, PORT: String(port), QB_LOG_REQUESTS: '0' }),
+  });
+  await new Promise<void>((resolve, reject) => {
+    child.stdout!.on('data', (chunk: Buffer) => {
+      if (chunk.toString().includes('API listening')) resolve();
+    });
+    child.once('exit', (code) => reject(new Error(`server exited with ${code}`)));
+  });
+  return {
+    url: `http://127.0.0.1:${port}`,
+    stop: () => {
+      if (child.pid) process.kill(-child.pid, 'SIGTERM');
+      agent.destroy();
+    },
+  };
+}
+
+const agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
+
+/** One request; resolves with its status and the time it took in milliseconds. */
+export function timedRequest(
+  url: string,
+  options: { method?: string; body?: unknown } = {},
+): Promise<{ status: number; ms: number }> {
+  const started = performance.now();
+  const payload = options.body === undefined ? undefined : JSON.stringify(options.body);
+  return new Promise((resolve, reject) => {
+    const req = http.request(
+      url,
+      {
+        method: options.method ?? 'GET',
+        agent,
+        headers: payload
+          ? { 'Content-Type': 'application/json', 'Content-Length': Buffer.byteLength(payload) }
+          : {},
+      },
+      (res) => {
+        res.resume();
+        res.on('end', () =>
+          resolve({ status: res.statusCode ?? 0, ms: performance.now() - started }),
+        );
+      },
+    );
+    req.on('error', reject);
+    if (payload) req.write(payload);
+    req.end();
+  });
+}
+
+export function percentile(values: number[], p: number): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const index = Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1));
+  return sorted[index] ?? NaN;
+}
+
+export const fmt = (ms: number) => `${ms.toFixed(1)} ms`;
