@@ -1,34 +1,17 @@
 import { router } from 'expo-router';
-import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { changePasswordSchema } from '../shared/schemas/auth';
 import type { UnitSystem } from '../shared/schemas/roles';
 import { bannerMessage } from './api/error-messages';
 import { useChangePasswordMutation, useSignOutMutation, useUpdateMeMutation } from './api/session';
 import { useLab } from './lab-context';
-import { colors, radius, space } from './theme';
+import { space } from './theme';
 import { Banner } from './ui/banner';
 import { Button } from './ui/button';
+import { Card } from './ui/card';
 import { Choice } from './ui/choice';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from './ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from './ui/form';
 import { AppText } from './ui/text';
-
-function Card({
-  title,
-  children,
-  testID,
-}: {
-  title: string;
-  children: React.ReactNode;
-  testID?: string;
-}) {
-  return (
-    <View style={styles.card} testID={testID}>
-      <AppText variant="heading">{title}</AppText>
-      {children}
-    </View>
-  );
-}
 
 const unitOptions = [
   { value: 'metric' as const, label: 'Metric (g, mm, mL, °C)' },
@@ -38,15 +21,9 @@ const unitOptions = [
 function PasswordCard() {
   const form = useZodForm(changePasswordSchema, { currentPassword: '', newPassword: '' });
   const change = useChangePasswordMutation();
-  const [banner, setBanner] = useState<string>();
-  const submit = form.handleSubmit(async (values) => {
-    setBanner(undefined);
-    try {
-      await change.mutateAsync(values);
-      form.reset();
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+  const { banner, submit } = useSubmit(form, async (values) => {
+    await change.mutateAsync(values);
+    form.reset();
   });
   return (
     <Card title="Password" testID="password-card">
@@ -71,7 +48,7 @@ function PasswordCard() {
         />
         <Button
           label="Change password"
-          onPress={() => void submit()}
+          onPress={submit}
           busy={change.isPending}
           testID="change-password-submit"
         />
@@ -142,13 +119,5 @@ export function AccountScreen() {
 
 const styles = StyleSheet.create({
   screen: { gap: space.lg },
-  card: {
-    backgroundColor: colors.surface,
-    borderColor: colors.line,
-    borderWidth: 1,
-    borderRadius: radius.md,
-    padding: space.lg,
-    gap: space.md,
-  },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
 });

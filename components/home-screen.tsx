@@ -1,5 +1,4 @@
 import { Redirect, router } from 'expo-router';
-import { useState } from 'react';
 import { createLabSchema } from '../shared/schemas/lab';
 import { bannerMessage } from './api/error-messages';
 import { useCreateLabMutation } from './api/labs';
@@ -8,20 +7,15 @@ import { AuthFrame } from './auth/auth-frame';
 import { Loading } from './lab-gate';
 import { Banner } from './ui/banner';
 import { Button } from './ui/button';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from './ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from './ui/form';
 
 function NoLab() {
   const form = useZodForm(createLabSchema, { name: '' });
   const create = useCreateLabMutation();
   const signOut = useSignOutMutation();
-  const [banner, setBanner] = useState<string>();
-  const submit = form.handleSubmit(async ({ name }) => {
-    try {
-      const lab = await create.mutateAsync(name);
-      router.replace(`/labs/${lab.id}` as never);
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+  const { banner, submit } = useSubmit(form, async ({ name }) => {
+    const lab = await create.mutateAsync(name);
+    router.replace(`/labs/${lab.id}` as never);
   });
   return (
     <AuthFrame
@@ -30,7 +24,7 @@ function NoLab() {
     >
       <FormStack banner={banner}>
         <FormTextField control={form.control} name="name" label="Name of your new lab" />
-        <Button label="Create the lab" onPress={() => void submit()} busy={create.isPending} />
+        <Button label="Create the lab" onPress={submit} busy={create.isPending} />
       </FormStack>
       <Button label="Sign out" tone="secondary" onPress={() => signOut.mutate()} />
     </AuthFrame>

@@ -1,6 +1,7 @@
 import { StyleSheet, View } from 'react-native';
 import type { Section } from './sections';
-import { colors, radius, space } from './theme';
+import { colors, space } from './theme';
+import { Card } from './ui/card';
 import { AppText } from './ui/text';
 
 /** A section's title, what it is for, and what it will hold: no sample data. */
@@ -11,7 +12,7 @@ export function SectionIntro({ section }: { section: Section }) {
         {section.title}
       </AppText>
       <AppText testID="section-intro">{section.summary}</AppText>
-      <View style={styles.card}>
+      <Card gap="sm">
         <AppText variant="label" tone="muted">
           This section will hold
         </AppText>
@@ -21,21 +22,13 @@ export function SectionIntro({ section }: { section: Section }) {
             <AppText style={styles.itemText}>{line}</AppText>
           </View>
         ))}
-      </View>
+      </Card>
     </View>
   );
 }
 
 const styles = StyleSheet.create({
   wrap: { gap: space.md },
-  card: {
-    backgroundColor: colors.surface,
-    borderColor: colors.line,
-    borderWidth: 1,
-    borderRadius: radius.md,
-    padding: space.lg,
-    gap: space.sm,
-  },
   item: { flexDirection: 'row', gap: space.sm, alignItems: 'flex-start' },
   bullet: { width: 8, height: 8, borderRadius: 4, backgroundColor: colors.primary, marginTop: 8 },
   itemText: { flex: 1 },

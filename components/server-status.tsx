@@ -1,6 +1,5 @@
-import { StyleSheet, View } from 'react-native';
 import { useHealthQuery } from './api/health';
-import { colors, radius, space } from './theme';
+import { Card } from './ui/card';
 import { AppText } from './ui/text';
 
 /** A small card that says whether the server and its database answer. */
@@ -19,22 +18,11 @@ export function ServerStatus() {
     tone = up ? 'ok' : 'danger';
   }
   return (
-    <View style={styles.card} testID="server-status">
+    <Card testID="server-status" gap="xs">
       <AppText variant="label" tone="muted">
         Server
       </AppText>
       <AppText tone={isPending ? 'muted' : tone}>{text}</AppText>
-    </View>
+    </Card>
   );
 }
-
-const styles = StyleSheet.create({
-  card: {
-    backgroundColor: colors.surface,
-    borderColor: colors.line,
-    borderWidth: 1,
-    borderRadius: radius.md,
-    padding: space.lg,
-    gap: space.xs,
-  },
-});

@@ -1,5 +1,4 @@
 import { router } from 'expo-router';
-import { useState } from 'react';
 import { View } from 'react-native';
 import { z } from 'zod';
 import { newPasswordSchema } from '../../shared/schemas/auth';
@@ -12,7 +11,7 @@ import { Loading } from '../lab-gate';
 import { roleLabels } from '../lab/role-words';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from '../ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AppText } from '../ui/text';
 import { AuthFrame, FrameLink } from './auth-frame';
 
@@ -24,16 +23,10 @@ const newcomerSchema = z.object({
 function NewcomerForm({ token, email }: { token: string; email: string }) {
   const form = useZodForm(newcomerSchema, { displayName: '', password: '' });
   const accept = useAcceptInvitationMutation(token);
-  const [banner, setBanner] = useState<string>();
-  const submit = form.handleSubmit(async (values) => {
-    setBanner(undefined);
-    try {
-      const res = await accept.mutateAsync(values);
-      const labId = 'me' in res ? res.me.labs[0]?.id : res.labId;
-      router.replace(`/labs/${labId}` as never);
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+  const { banner, submit } = useSubmit(form, async (values) => {
+    const res = await accept.mutateAsync(values);
+    const labId = 'me' in res ? res.me.labs[0]?.id : res.labId;
+    router.replace(`/labs/${labId}` as never);
   });
   return (
     <FormStack banner={banner}>
@@ -54,7 +47,7 @@ function NewcomerForm({ token, email }: { token: string; email: string }) {
       />
       <Button
         label="Create account and join"
-        onPress={() => void submit()}
+        onPress={submit}
         busy={accept.isPending}
         testID="accept-submit"
       />

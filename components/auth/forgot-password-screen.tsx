@@ -1,23 +1,16 @@
-import { useState } from 'react';
 import { resetRequestSchema } from '../../shared/schemas/auth';
 import { useRequestResetMutation } from '../api/session';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from '../ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AuthFrame, FrameLink } from './auth-frame';
 
 export function ForgotPasswordScreen() {
   const form = useZodForm(resetRequestSchema, { email: '' });
   const request = useRequestResetMutation();
-  const [banner, setBanner] = useState<string>();
 
-  const submit = form.handleSubmit(async (values) => {
-    setBanner(undefined);
-    try {
-      await request.mutateAsync(values);
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+  const { banner, submit } = useSubmit(form, async (values) => {
+    await request.mutateAsync(values);
   });
 
   return (
@@ -44,7 +37,7 @@ export function ForgotPasswordScreen() {
           />
           <Button
             label="Send the link"
-            onPress={() => void submit()}
+            onPress={submit}
             busy={request.isPending}
             testID="reset-request-submit"
           />

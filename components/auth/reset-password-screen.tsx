@@ -1,10 +1,9 @@
-import { useState } from 'react';
 import { z } from 'zod';
 import { newPasswordSchema } from '../../shared/schemas/auth';
 import { useConfirmResetMutation } from '../api/session';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from '../ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AuthFrame, FrameLink } from './auth-frame';
 
 const formSchema = z.object({ newPassword: newPasswordSchema });
@@ -12,15 +11,9 @@ const formSchema = z.object({ newPassword: newPasswordSchema });
 export function ResetPasswordScreen({ token }: { token?: string }) {
   const form = useZodForm(formSchema, { newPassword: '' });
   const confirm = useConfirmResetMutation();
-  const [banner, setBanner] = useState<string>();
 
-  const submit = form.handleSubmit(async ({ newPassword }) => {
-    setBanner(undefined);
-    try {
-      await confirm.mutateAsync({ token: token ?? '', newPassword });
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+  const { banner, submit } = useSubmit(form, async ({ newPassword }) => {
+    await confirm.mutateAsync({ token: token ?? '', newPassword });
   });
 
   if (!token) {
@@ -57,7 +50,7 @@ export function ResetPasswordScreen({ token }: { token?: string }) {
           />
           <Button
             label="Set the new password"
-            onPress={() => void submit()}
+            onPress={submit}
             busy={confirm.isPending}
             testID="reset-confirm-submit"
           />

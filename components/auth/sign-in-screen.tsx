@@ -1,27 +1,20 @@
 import { router } from 'expo-router';
-import { useState } from 'react';
 import { View } from 'react-native';
 import { signInSchema } from '../../shared/schemas/auth';
 import { useSignInMutation } from '../api/session';
 import { Button } from '../ui/button';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from '../ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AuthFrame, FrameLink } from './auth-frame';
 import { safeNext } from './next-path';
 
 export function SignInScreen({ next }: { next?: string }) {
   const form = useZodForm(signInSchema, { email: '', password: '', tokenDelivery: 'cookie' });
   const signIn = useSignInMutation();
-  const [banner, setBanner] = useState<string>();
   const target = safeNext(next);
 
-  const submit = form.handleSubmit(async (values) => {
-    setBanner(undefined);
-    try {
-      await signIn.mutateAsync(values);
-      router.replace((target ?? '/') as never);
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+  const { banner, submit } = useSubmit(form, async (values) => {
+    await signIn.mutateAsync(values);
+    router.replace((target ?? '/') as never);
   });
 
   return (
@@ -45,14 +38,9 @@ export function SignInScreen({ next }: { next?: string }) {
           label="Password"
           secureTextEntry
           autoComplete="current-password"
-          onSubmitEditing={() => void submit()}
+          onSubmitEditing={submit}
         />
-        <Button
-          label="Sign in"
-          onPress={() => void submit()}
-          busy={signIn.isPending}
-          testID="sign-in-submit"
-        />
+        <Button label="Sign in" onPress={submit} busy={signIn.isPending} testID="sign-in-submit" />
       </FormStack>
       <View>
         <FrameLink href="/forgot-password" label="Forgot your password?" testID="link-forgot" />

@@ -1,25 +1,18 @@
 import { router } from 'expo-router';
-import { useState } from 'react';
 import { signUpSchema } from '../../shared/schemas/auth';
 import { useSignUpMutation } from '../api/session';
 import { Button } from '../ui/button';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from '../ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AuthFrame, FrameLink } from './auth-frame';
 
 export function SignUpScreen() {
   const form = useZodForm(signUpSchema, { email: '', password: '', displayName: '', labName: '' });
   const signUp = useSignUpMutation();
-  const [banner, setBanner] = useState<string>();
 
-  const submit = form.handleSubmit(async (values) => {
-    setBanner(undefined);
-    try {
-      const res = await signUp.mutateAsync(values);
-      const lab = res.me.labs[0];
-      router.replace(lab ? `/labs/${lab.id}` : '/');
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+  const { banner, submit } = useSubmit(form, async (values) => {
+    const res = await signUp.mutateAsync(values);
+    const lab = res.me.labs[0];
+    router.replace(lab ? `/labs/${lab.id}` : '/');
   });
 
   return (
@@ -59,7 +52,7 @@ export function SignUpScreen() {
         />
         <Button
           label="Create account and lab"
-          onPress={() => void submit()}
+          onPress={submit}
           busy={signUp.isPending}
           testID="sign-up-submit"
         />

@@ -7,27 +7,21 @@ import { useInviteMutation } from '../api/labs';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
 import { Choice } from '../ui/choice';
-import { FormStack, FormTextField, serverErrorToForm, useZodForm } from '../ui/form';
+import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AppText } from '../ui/text';
 import { roleOptions } from './role-words';
 
 export function InviteForm({ labId }: { labId: string }) {
   const form = useZodForm(createInvitationSchema, { email: '', role: 'technician' });
   const invite = useInviteMutation(labId);
-  const [banner, setBanner] = useState<string>();
   const [sentTo, setSentTo] = useState<string>();
   const role = form.watch('role');
 
-  const submit = form.handleSubmit(async (values) => {
-    setBanner(undefined);
+  const { banner, submit } = useSubmit(form, async (values) => {
     setSentTo(undefined);
-    try {
-      const sent = await invite.mutateAsync(values);
-      setSentTo(sent.email);
-      form.reset({ email: '', role: values.role });
-    } catch (err) {
-      setBanner(serverErrorToForm(form, err));
-    }
+    const sent = await invite.mutateAsync(values);
+    setSentTo(sent.email);
+    form.reset({ email: '', role: values.role });
   });
 
   return (
@@ -68,7 +62,7 @@ export function InviteForm({ labId }: { labId: string }) {
       </View>
       <Button
         label="Send invitation"
-        onPress={() => void submit()}
+        onPress={submit}
         busy={invite.isPending}
         testID="invite-submit"
       />

@@ -12,21 +12,14 @@ import {
   useWithdrawInvitationMutation,
 } from '../api/labs';
 import { useLab } from '../lab-context';
-import { colors, radius, space } from '../theme';
+import { colors, space } from '../theme';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
+import { Card } from '../ui/card';
 import { Choice } from '../ui/choice';
 import { AppText } from '../ui/text';
 import { InviteForm } from './invite-form';
 import { roleLabels, roleOptions } from './role-words';
-
-function Card({ children, testID }: { children: React.ReactNode; testID?: string }) {
-  return (
-    <View style={styles.card} testID={testID}>
-      {children}
-    </View>
-  );
-}
 
 function MemberRow({
   member,
@@ -126,7 +119,7 @@ export function MembersScreen() {
         </Link>
       ) : null}
 
-      <Card testID="members">
+      <Card testID="members" gap="lg">
         <AppText variant="heading">Members</AppText>
         {members.error ? <Banner tone="error" message={bannerMessage(members.error)} /> : null}
         {members.data?.members.map((m) => (
@@ -141,7 +134,7 @@ export function MembersScreen() {
       </Card>
 
       {manage ? (
-        <Card testID="invite">
+        <Card testID="invite" gap="lg">
           <AppText variant="heading">Invite someone</AppText>
           <InviteForm labId={lab.id} />
           {pending.length ? (
@@ -172,14 +165,6 @@ export function MembersScreen() {
 
 const styles = StyleSheet.create({
   screen: { gap: space.lg },
-  card: {
-    backgroundColor: colors.surface,
-    borderColor: colors.line,
-    borderWidth: 1,
-    borderRadius: radius.md,
-    padding: space.lg,
-    gap: space.lg,
-  },
   row: {
     gap: space.sm,
     paddingBottom: space.lg,

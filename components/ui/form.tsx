@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import type { ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import {
   Controller,
   useForm,
@@ -40,6 +40,26 @@ export function serverErrorToForm<T extends FieldValues>(
     }
   }
   return bannerMessage(error);
+}
+
+/**
+ * A form's submit: checks with the schema, runs the action, and on failure puts the server's
+ * field errors under their inputs and its message in the banner.
+ */
+export function useSubmit<TIn extends FieldValues, TOut>(
+  form: UseFormReturn<TIn, unknown, TOut>,
+  action: (values: TOut) => Promise<void>,
+): { banner: string | undefined; submit: () => void } {
+  const [banner, setBanner] = useState<string>();
+  const handle = form.handleSubmit(async (values) => {
+    setBanner(undefined);
+    try {
+      await action(values);
+    } catch (err) {
+      setBanner(serverErrorToForm(form, err));
+    }
+  });
+  return { banner, submit: () => void handle() };
 }
 
 type FieldProps<T extends FieldValues> = Omit<TextInputProps, 'value' | 'onChangeText'> & {

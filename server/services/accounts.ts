@@ -12,6 +12,7 @@ import { AppError } from '../errors';
 import { passwordResetMail } from '../mail/templates';
 import { LabModel, MembershipModel, PasswordResetModel, UserModel } from '../models';
 import { recordAudit } from './audit';
+import { createLab } from './labs';
 import type { RequestMeta, ServiceDeps } from './deps';
 import { openSession, revokeAllSessions, type IssuedTokens } from './sessions';
 import { csrfTokenFor, hashToken, randomToken } from './tokens';
@@ -101,21 +102,7 @@ export async function signUp(
       { email: input.email, displayName: input.displayName, passwordHash },
       { transaction },
     );
-    const lab = await LabModel.create({ name: input.labName }, { transaction });
-    await MembershipModel.create(
-      { labId: lab.id, userId: created.id, role: 'manager' },
-      { transaction },
-    );
-    await recordAudit(
-      {
-        action: 'lab_created',
-        labId: lab.id,
-        actorId: created.id,
-        ip: meta.ip,
-        detail: { name: lab.name },
-      },
-      transaction,
-    );
+    await createLab({ name: input.labName, creatorId: created.id, ip: meta.ip }, transaction);
     return created;
   });
   const tokens = await openSession(deps.config, user.id, meta);

@@ -1,3 +1,4 @@
+import type { Transaction } from 'sequelize';
 import type { Lab } from '../../shared/schemas/lab';
 import type { Role } from '../../shared/schemas/roles';
 import { LabModel, MembershipModel } from '../models';
@@ -7,17 +8,16 @@ function toLab(row: LabModel, role: Role): Lab {
   return { id: row.id, name: row.name, createdAt: row.createdAt.toISOString(), role };
 }
 
-/** A new lab with its creator as manager. */
-export async function createLab(input: {
-  name: string;
-  creatorId: string;
-  ip?: string | null;
-}): Promise<Lab> {
-  return LabModel.sequelize!.transaction(async (transaction) => {
-    const lab = await LabModel.create({ name: input.name }, { transaction });
+/** A new lab with its creator as manager (inside the caller's transaction when given). */
+export async function createLab(
+  input: { name: string; creatorId: string; ip?: string | null },
+  transaction?: Transaction,
+): Promise<Lab> {
+  const run = async (t: Transaction) => {
+    const lab = await LabModel.create({ name: input.name }, { transaction: t });
     await MembershipModel.create(
       { labId: lab.id, userId: input.creatorId, role: 'manager' },
-      { transaction },
+      { transaction: t },
     );
     await recordAudit(
       {
@@ -27,10 +27,11 @@ export async function createLab(input: {
         ip: input.ip,
         detail: { name: lab.name },
       },
-      transaction,
+      t,
     );
     return toLab(lab, 'manager');
-  });
+  };
+  return transaction ? run(transaction) : LabModel.sequelize!.transaction(run);
 }
 
 export async function getLab(labId: string, role: Role): Promise<Lab> {

@@ -3,19 +3,9 @@ import request from 'supertest';
 import { meSchema, signedInSchema } from '../../shared/schemas/auth';
 import { AuditEventModel, SessionModel } from '../../server/models';
 import { bearer, PASSWORD, signInForToken, signUpPerson, uniqueEmail } from '../support/accounts';
-import { buildApp, type TestApp } from '../support/app';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { buildApp, withTestApp } from '../support/app';
 
-let db: TestDatabase;
-let t: TestApp;
-beforeAll(async () => {
-  db = await freshDatabase();
-  t = buildApp(db);
-});
-afterAll(async () => {
-  await t.close();
-  await db.drop();
-});
+const t = withTestApp();
 
 function cookiesOf(res: request.Response): string[] {
   const raw = res.headers['set-cookie'] as unknown as string[] | string | undefined;
@@ -52,7 +42,9 @@ describe('POST /api/auth/sign-up', () => {
   });
 
   it('sets Secure on the cookies when configured for production-like serving', async () => {
-    const secure = buildApp(db, { config: { auth: { ...db.config.auth, cookieSecure: true } } });
+    const secure = buildApp(t.db, {
+      config: { auth: { ...t.db.config.auth, cookieSecure: true } },
+    });
     try {
       const res = await request(secure.app).post('/api/auth/sign-up').send({
         email: uniqueEmail(),
@@ -334,7 +326,7 @@ describe('POST /api/auth/password', () => {
 
 describe('rate limits', () => {
   it('answers 429 with Retry-After and a clear message after the limit of sign-in tries', async () => {
-    const limited = buildApp(db, { config: { auth: { ...db.config.auth, rateLimitMax: 3 } } });
+    const limited = buildApp(t.db, { config: { auth: { ...t.db.config.auth, rateLimitMax: 3 } } });
     try {
       const email = uniqueEmail();
       for (let i = 0; i < 3; i++) {
@@ -356,7 +348,7 @@ describe('rate limits', () => {
   });
 
   it('limits tries per account even when they come from different addresses', async () => {
-    const limited = buildApp(db, { config: { auth: { ...db.config.auth, rateLimitMax: 2 } } });
+    const limited = buildApp(t.db, { config: { auth: { ...t.db.config.auth, rateLimitMax: 2 } } });
     try {
       const email = uniqueEmail();
       // The server trusts X-Forwarded-For from loopback (a local reverse proxy), so each try

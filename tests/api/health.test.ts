@@ -1,20 +1,10 @@
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { createSequelize } from '../../server/db';
-import { buildApp, type TestApp } from '../support/app';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { withTestApp } from '../support/app';
 import { healthSchema } from '../../shared/schemas/health';
 
-let db: TestDatabase;
-let built: TestApp;
-beforeAll(async () => {
-  db = await freshDatabase();
-  built = buildApp(db);
-});
-afterAll(async () => {
-  await built.close();
-  await db.drop();
-});
+const built = withTestApp();
 
 describe('GET /api/health', () => {
   it('answers 200 with the database ok and the package version', async () => {
@@ -24,7 +14,7 @@ describe('GET /api/health', () => {
     expect(healthSchema.parse(res.body)).toEqual({
       status: 'ok',
       db: 'ok',
-      version: db.config.version,
+      version: built.db.config.version,
     });
   });
 
@@ -35,7 +25,11 @@ describe('GET /api/health', () => {
     try {
       const res = await request(createApp({ ...built.deps, sequelize: down })).get('/api/health');
       expect(res.status).toBe(503);
-      expect(res.body).toEqual({ status: 'degraded', db: 'down', version: db.config.version });
+      expect(res.body).toEqual({
+        status: 'degraded',
+        db: 'down',
+        version: built.db.config.version,
+      });
     } finally {
       await down.close();
     }

@@ -8,22 +8,11 @@ import {
   uniqueEmail,
   memberWithRole,
 } from '../support/accounts';
-import { buildApp, type TestApp } from '../support/app';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { withTestApp } from '../support/app';
 import { linkIn, waitForMail } from '../support/mail';
 
-let db: TestDatabase;
-let t: TestApp;
-let mailbox: string;
-beforeAll(async () => {
-  db = await freshDatabase();
-  t = buildApp(db);
-  mailbox = t.config.mail.fakeSmtp!.mailboxDir;
-});
-afterAll(async () => {
-  await t.close();
-  await db.drop();
-});
+const t = withTestApp();
+const mailbox = () => t.config.mail.fakeSmtp!.mailboxDir;
 
 async function invite(
   lead: { token: string; labId: string },
@@ -35,7 +24,7 @@ async function invite(
     .set(bearer(lead.token))
     .send({ email, role });
   expect(res.status).toBe(201);
-  const mail = await waitForMail(mailbox, { to: email, subject: /invit/i });
+  const mail = await waitForMail(mailbox(), { to: email, subject: /invit/i });
   return new URL(linkIn(mail, '/invitations/')).pathname.split('/').pop()!;
 }
 

@@ -1,19 +1,9 @@
 import request from 'supertest';
 import { auditPageSchema } from '../../shared/schemas/audit';
 import { bearer, memberWithRole, PASSWORD, signUpPerson } from '../support/accounts';
-import { buildApp, type TestApp } from '../support/app';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { withTestApp } from '../support/app';
 
-let db: TestDatabase;
-let t: TestApp;
-beforeAll(async () => {
-  db = await freshDatabase();
-  t = buildApp(db);
-});
-afterAll(async () => {
-  await t.close();
-  await db.drop();
-});
+const t = withTestApp();
 
 describe('PATCH /api/labs/:labId/members/:userId', () => {
   it('refuses to demote the last manager, with a clear message', async () => {

@@ -2,27 +2,16 @@ import request from 'supertest';
 import { PasswordResetModel } from '../../server/models';
 import { listMail } from '../../server/mail/mailbox';
 import { bearer, PASSWORD, signInForToken, signUpPerson, uniqueEmail } from '../support/accounts';
-import { buildApp, type TestApp } from '../support/app';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { withTestApp } from '../support/app';
 import { linkIn, waitForMail } from '../support/mail';
 
-let db: TestDatabase;
-let t: TestApp;
-let mailbox: string;
-beforeAll(async () => {
-  db = await freshDatabase();
-  t = buildApp(db);
-  mailbox = t.config.mail.fakeSmtp!.mailboxDir;
-});
-afterAll(async () => {
-  await t.close();
-  await db.drop();
-});
+const t = withTestApp();
+const mailbox = () => t.config.mail.fakeSmtp!.mailboxDir;
 
 async function requestReset(email: string): Promise<string> {
   const res = await request(t.app).post('/api/auth/password-reset/request').send({ email });
   expect(res.status).toBe(202);
-  const mail = await waitForMail(mailbox, { to: email, subject: /password/i });
+  const mail = await waitForMail(mailbox(), { to: email, subject: /password/i });
   return new URL(linkIn(mail, '/reset-password')).searchParams.get('token')!;
 }
 
@@ -76,7 +65,7 @@ describe('password reset by e-mail', () => {
     const res = await request(t.app).post('/api/auth/password-reset/request').send({ email });
     expect(res.status).toBe(202);
     await new Promise((resolve) => setTimeout(resolve, 300));
-    expect((await listMail(mailbox)).some((m) => m.to.includes(email))).toBe(false);
+    expect((await listMail(mailbox())).some((m) => m.to.includes(email))).toBe(false);
   });
 
   it('refuses a made-up token', async () => {

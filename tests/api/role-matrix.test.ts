@@ -7,14 +7,12 @@ import {
   uniqueEmail,
   type Person,
 } from '../support/accounts';
-import { buildApp, type TestApp } from '../support/app';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { withTestApp } from '../support/app';
 
 // Every lab route × every role × own lab / another lab, with the exact status expected.
 // Not a member (another lab): 404, so another lab's records do not show that they exist.
 
-let db: TestDatabase;
-let t: TestApp;
+const t = withTestApp();
 type Lab = { id: string; manager: Person; people: Record<Role, Person> };
 let labs: { own: Lab; other: Lab };
 
@@ -30,13 +28,7 @@ async function makeLab(name: string): Promise<Lab> {
 }
 
 beforeAll(async () => {
-  db = await freshDatabase();
-  t = buildApp(db);
   labs = { own: await makeLab('Own lab'), other: await makeLab('Other lab') };
-});
-afterAll(async () => {
-  await t.close();
-  await db.drop();
 });
 
 const call = (method: Route['method'], path: string) => request(t.app)[method](path);

@@ -7,7 +7,7 @@ import { createMailer, type Mailer } from '../../server/mail/sender';
 import { TEST_ARGON2ID } from '../../server/passwords/cost';
 import { createPasswordHasher, type PasswordHasher } from '../../server/passwords/hasher';
 import type { ServiceDeps } from '../../server/services/deps';
-import type { TestDatabase } from './db';
+import { freshDatabase, type TestDatabase } from './db';
 
 export type TestApp = {
   app: Express;
@@ -77,5 +77,43 @@ export async function startTestServer(
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await built.close();
     },
+  };
+}
+
+/**
+ * A test file's own database and app, made before its tests and dropped after them. The
+ * returned object reads through to them, so tests use it like a TestApp.
+ */
+export function withTestApp(
+  options: Parameters<typeof buildApp>[1] = {},
+): TestApp & { readonly db: TestDatabase } {
+  let db: TestDatabase | undefined;
+  let built: TestApp | undefined;
+  beforeAll(async () => {
+    db = await freshDatabase();
+    built = buildApp(db, options);
+  });
+  afterAll(async () => {
+    await built?.close();
+    await db?.drop();
+  });
+  const need = <T>(value: T | undefined): T => {
+    if (value === undefined) throw new Error('withTestApp: used outside beforeAll/it');
+    return value;
+  };
+  return {
+    get app() {
+      return need(built).app;
+    },
+    get config() {
+      return need(built).config;
+    },
+    get deps() {
+      return need(built).deps;
+    },
+    get db() {
+      return need(db);
+    },
+    close: async () => {},
   };
 }
