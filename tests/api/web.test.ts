@@ -61,3 +61,20 @@ describe('the web app', () => {
     expect(res.text).toContain('npm run build:web');
   });
 });
+
+describe('the development mail viewer', () => {
+  it('exists outside production', async () => {
+    const res = await request(appFor(webDirWith({}))).get('/api/dev/mail');
+    expect(res.status).toBe(200);
+    expect(Array.isArray(res.body.messages)).toBe(true);
+  });
+
+  it('does not exist in production', async () => {
+    const built = buildApp(db, { config: { env: 'production' } });
+    opened.push(built);
+    const api = await request(built.app).get('/api/dev/mail');
+    expect(api.status).toBe(404);
+    const page = await request(built.app).get('/dev/mail');
+    expect(page.text).not.toContain('Captured mail');
+  });
+});
