@@ -5,15 +5,18 @@ import morgan from 'morgan';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
 import type { Mailer } from './mail/sender';
+import { authenticate } from './middleware/auth';
 import { apiNotFound, errorHandler } from './middleware/error';
 import { createRegistry, generateDocument } from './openapi';
 import type { PasswordHasher } from './passwords/hasher';
 import { authRouter, registerAuthDocs } from './routes/auth';
+import { batchesRouter, registerBatchDocs } from './routes/batches';
 import { devMailRouter } from './routes/dev-mail';
 import { healthRouter, registerHealthDocs } from './routes/health';
 import { invitationsRouter, registerInvitationDocs } from './routes/invitations';
 import { labsRouter, registerLabDocs } from './routes/labs';
 import { meRouter, registerMeDocs } from './routes/me';
+import { recipesRouter, registerRecipeDocs } from './routes/recipes';
 import type { ServiceDeps } from './services/deps';
 import { webRouter } from './web';
 
@@ -68,8 +71,14 @@ export function createApp({
   registerMeDocs(docs);
   api.use(invitationsRouter(deps));
   registerInvitationDocs(docs);
+  // Everything under /labs needs a signed-in caller; each route then checks the lab and role.
+  api.use('/labs', authenticate(config));
   api.use(labsRouter(deps));
   registerLabDocs(docs);
+  api.use(recipesRouter());
+  registerRecipeDocs(docs);
+  api.use(batchesRouter());
+  registerBatchDocs(docs);
 
   const openapi = generateDocument(docs, config.version);
   api.get('/openapi.json', (_req, res) => {

@@ -1,6 +1,7 @@
 import path from 'node:path';
 import type { QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
+import { syncReferenceChemicals } from './services/chemicals';
 
 type MigrationModule = {
   up: (qi: QueryInterface) => Promise<void>;
@@ -28,7 +29,9 @@ export function createMigrator(sequelize: Sequelize): Umzug<QueryInterface> {
   });
 }
 
+/** Brings the schema up to date, then the reference chemicals that ship with the code. */
 export async function migrateUp(sequelize: Sequelize): Promise<string[]> {
   const done = await createMigrator(sequelize).up();
+  await syncReferenceChemicals();
   return done.map((m) => m.name);
 }

@@ -1,14 +1,28 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEventModel } from './audit-event';
+import { BatchModel } from './batch';
+import { ChemicalModel } from './chemical';
+import { IngredientModel } from './ingredient';
 import { InvitationModel } from './invitation';
 import { LabModel } from './lab';
 import { MembershipModel } from './membership';
 import { PasswordResetModel } from './password-reset';
+import { RecipeModel } from './recipe';
+import { RecipeRevisionModel } from './recipe-revision';
 import { SessionModel } from './session';
+import { SpecimenModel } from './specimen';
 import { UserModel } from './user';
+import { WeighInModel } from './weigh-in';
 
 export {
   AuditEventModel,
+  BatchModel,
+  ChemicalModel,
+  IngredientModel,
+  RecipeModel,
+  RecipeRevisionModel,
+  SpecimenModel,
+  WeighInModel,
   InvitationModel,
   LabModel,
   MembershipModel,
@@ -26,6 +40,13 @@ export function initModels(sequelize: Sequelize): void {
     PasswordResetModel,
     InvitationModel,
     AuditEventModel,
+    ChemicalModel,
+    RecipeModel,
+    RecipeRevisionModel,
+    IngredientModel,
+    BatchModel,
+    WeighInModel,
+    SpecimenModel,
   ]) {
     model.initModel(sequelize);
   }
@@ -35,4 +56,14 @@ export function initModels(sequelize: Sequelize): void {
   InvitationModel.belongsTo(UserModel, { foreignKey: 'invitedBy', as: 'inviter' });
   AuditEventModel.belongsTo(UserModel, { foreignKey: 'actorId', as: 'actor' });
   AuditEventModel.belongsTo(UserModel, { foreignKey: 'targetUserId', as: 'target' });
+  RecipeModel.hasMany(RecipeRevisionModel, { foreignKey: 'recipeId', as: 'revisions' });
+  RecipeRevisionModel.belongsTo(RecipeModel, { foreignKey: 'recipeId', as: 'recipe' });
+  RecipeRevisionModel.hasMany(IngredientModel, { foreignKey: 'revisionId', as: 'ingredients' });
+  RecipeRevisionModel.belongsTo(UserModel, { foreignKey: 'createdBy', as: 'author' });
+  IngredientModel.belongsTo(ChemicalModel, { foreignKey: 'chemicalId', as: 'chemical' });
+  BatchModel.belongsTo(RecipeRevisionModel, { foreignKey: 'revisionId', as: 'revision' });
+  BatchModel.belongsTo(UserModel, { foreignKey: 'operatorId', as: 'operator' });
+  BatchModel.hasMany(WeighInModel, { foreignKey: 'batchId', as: 'weighIns' });
+  BatchModel.hasMany(SpecimenModel, { foreignKey: 'batchId', as: 'specimens' });
+  WeighInModel.belongsTo(ChemicalModel, { foreignKey: 'chemicalId', as: 'chemical' });
 }

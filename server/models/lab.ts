@@ -10,6 +10,7 @@ import {
 export class LabModel extends Model<InferAttributes<LabModel>, InferCreationAttributes<LabModel>> {
   declare id: CreationOptional<string>;
   declare name: string;
+  declare weighTolerancePct: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -18,6 +19,7 @@ export class LabModel extends Model<InferAttributes<LabModel>, InferCreationAttr
       {
         id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
         name: { type: DataTypes.TEXT, allowNull: false },
+        weighTolerancePct: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 2 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -15,7 +15,7 @@ import {
   memberSchema,
   updateMemberSchema,
 } from '../../shared/schemas/lab';
-import { authenticate, authOf, labOf, metaOf, requireLab } from '../middleware/auth';
+import { authOf, labOf, metaOf, requireLab } from '../middleware/auth';
 import { limitTries } from '../middleware/rate-limit';
 import { validate } from '../middleware/validate';
 import type { ApiDocs } from '../openapi';
@@ -28,7 +28,6 @@ import { changeRole, listMembers, removeMember } from '../services/members';
 
 export function labsRouter(deps: ServiceDeps): Router {
   const router = Router();
-  router.use('/labs', authenticate(deps.config));
   const actor = (req: Parameters<typeof metaOf>[0], res: Parameters<typeof authOf>[0]) => ({
     id: authOf(res).user.id,
     ip: metaOf(req).ip,

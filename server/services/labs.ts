@@ -5,7 +5,13 @@ import { LabModel, MembershipModel } from '../models';
 import { recordAudit } from './audit';
 
 function toLab(row: LabModel, role: Role): Lab {
-  return { id: row.id, name: row.name, createdAt: row.createdAt.toISOString(), role };
+  return {
+    id: row.id,
+    name: row.name,
+    createdAt: row.createdAt.toISOString(),
+    role,
+    weighTolerancePct: row.weighTolerancePct,
+  };
 }
 
 /** A new lab with its creator as manager (inside the caller's transaction when given). */

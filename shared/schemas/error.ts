@@ -20,6 +20,8 @@ export const errorCodes = [
   'sign_in_required',
   'wrong_account',
   'already_member',
+  'invalid_transition',
+  'already_exists',
 ] as const;
 
 export const errorCodeSchema = z.enum(errorCodes);

@@ -8,7 +8,13 @@ export const labNameSchema = z
   .max(120, 'Use at most 120 characters');
 
 export const labSchema = z
-  .object({ id: z.uuid(), name: labNameSchema, createdAt: z.iso.datetime(), role: roleSchema })
+  .object({
+    id: z.uuid(),
+    name: labNameSchema,
+    createdAt: z.iso.datetime(),
+    role: roleSchema,
+    weighTolerancePct: z.number(),
+  })
   .meta({ id: 'Lab' });
 export type Lab = z.infer<typeof labSchema>;
 

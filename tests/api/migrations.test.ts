@@ -13,7 +13,11 @@ afterAll(() => db.drop());
 describe('migrations', () => {
   it('records migrations by name without the file extension', async () => {
     const [rows] = await db.sequelize.query('SELECT name FROM schema_migrations ORDER BY name');
-    expect(rows).toEqual([{ name: '0001-labs' }, { name: '0002-accounts' }]);
+    expect(rows).toEqual([
+      { name: '0001-labs' },
+      { name: '0002-accounts' },
+      { name: '0003-recipes-batches' },
+    ]);
   });
 
   it('has nothing pending on a migrated database, and can go down and up again', async () => {
@@ -23,7 +27,11 @@ describe('migrations', () => {
     const [tables] = await db.sequelize.query("SELECT to_regclass('public.labs') AS t");
     expect(tables).toEqual([{ t: null }]);
     await migrator.up();
-    expect((await migrator.executed()).map((m) => m.name)).toEqual(['0001-labs', '0002-accounts']);
+    expect((await migrator.executed()).map((m) => m.name)).toEqual([
+      '0001-labs',
+      '0002-accounts',
+      '0003-recipes-batches',
+    ]);
   });
 });
 
