@@ -36,7 +36,7 @@ export class IngredientModel extends Model<
         position: { type: DataTypes.INTEGER, allowNull: false },
         amount: { type: DataTypes.DOUBLE, allowNull: false },
         unit: { type: DataTypes.TEXT, allowNull: false },
-        gPer100gWater: { type: DataTypes.DOUBLE, allowNull: false },
+        gPer100gWater: { type: DataTypes.DOUBLE, allowNull: false, field: 'g_per_100g_water' },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
