@@ -6,6 +6,7 @@ import { useLab } from './lab-context';
 import { LabSwitcher } from './lab-switcher';
 import { sectionPath, sections, type Section } from './sections';
 import { colors, fonts, space, WIDE_BREAKPOINT } from './theme';
+import { printExpand, printHide } from './ui/print';
 import { AppText } from './ui/text';
 
 type NavTarget = { key: string; title: string; path: string; exact: boolean };
@@ -70,6 +71,7 @@ export function AppShell({ children }: { children: ReactNode }) {
 
   const content = (
     <ScrollView
+      {...printExpand}
       style={styles.content}
       contentContainerStyle={[styles.contentInner, wide && styles.contentInnerWide]}
     >
@@ -80,7 +82,11 @@ export function AppShell({ children }: { children: ReactNode }) {
   if (wide) {
     return (
       <View style={[styles.root, styles.row]}>
-        <View style={[styles.side, { paddingTop: insets.top + space.xl }]} role="navigation">
+        <View
+          style={[styles.side, { paddingTop: insets.top + space.xl }]}
+          role="navigation"
+          {...printHide}
+        >
           <AppText style={styles.wordmark} accessibilityRole="header">
             Quenchbook
           </AppText>
@@ -101,7 +107,7 @@ export function AppShell({ children }: { children: ReactNode }) {
 
   return (
     <View style={[styles.root, { paddingTop: insets.top }]}>
-      <View style={styles.topBar}>
+      <View style={styles.topBar} {...printHide}>
         <View style={styles.topLeft}>
           <LabSwitcher compact />
         </View>

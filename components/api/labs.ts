@@ -25,6 +25,13 @@ export const labKeys = {
 
 const nothing = z.unknown();
 
+export function useLabQuery(labId: string) {
+  return useQuery({
+    queryKey: labKeys.lab(labId),
+    queryFn: ({ signal }) => apiRequest(`/api/labs/${labId}`, labSchema, { signal }),
+  });
+}
+
 export function useMembersQuery(labId: string) {
   return useQuery(
     queryOptions({

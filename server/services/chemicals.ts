@@ -75,7 +75,7 @@ export function toChemical(row: ChemicalModel): Chemical {
           summary: describeSolubility(s),
           source: s.source,
           confidence: s.confidence,
-          ...(s.kind === 'table' ? { points: s.points, basis: s.basis } : {}),
+          ...(s.kind === 'table' ? { points: s.points, basis: s.basis, solute: s.solute } : {}),
         }
       : null,
   };

@@ -74,6 +74,7 @@ export const chemicalSchema = z
         confidence: z.enum(['confirmed', 'derived', 'memory']),
         points: z.array(solubilityPointSchema.extend({ value: z.number() })).optional(),
         basis: z.string().optional(),
+        solute: z.enum(['as_is', 'anhydrous']).optional(),
       })
       .nullable(),
   })

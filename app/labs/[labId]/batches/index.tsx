@@ -1,0 +1,5 @@
+import { BatchesScreen } from '@/components/batches/batches-screen';
+
+export default function BatchesRoute() {
+  return <BatchesScreen />;
+}

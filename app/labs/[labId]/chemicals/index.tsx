@@ -1,0 +1,5 @@
+import { ChemicalsScreen } from '@/components/chemicals/chemicals-screen';
+
+export default function ChemicalsRoute() {
+  return <ChemicalsScreen />;
+}

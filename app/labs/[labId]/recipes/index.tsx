@@ -1,0 +1,5 @@
+import { RecipesScreen } from '@/components/recipes/recipes-screen';
+
+export default function RecipesRoute() {
+  return <RecipesScreen />;
+}

@@ -1,0 +1,5 @@
+import { RecipeEditor } from '@/components/recipes/recipe-editor';
+
+export default function NewRecipeRoute() {
+  return <RecipeEditor />;
+}

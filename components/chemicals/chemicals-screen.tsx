@@ -1,0 +1,319 @@
+import { Link } from 'expo-router';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+import { z } from 'zod';
+import {
+  createChemicalSchema,
+  type Chemical,
+  type CreateChemicalInput,
+} from '../../shared/schemas/chemical';
+import { bannerMessage } from '../api/error-messages';
+import { useChemicalsQuery, useCreateChemicalMutation } from '../api/recipes';
+import { useLab } from '../lab-context';
+import { colors, fonts, radius, space } from '../theme';
+import { Banner } from '../ui/banner';
+import { Button } from '../ui/button';
+import { Card } from '../ui/card';
+import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
+import { AppText } from '../ui/text';
+
+/** Stable test handle for a chemical: the reference key when it has one, else its id. */
+export function chemicalHandle(c: Chemical): string {
+  return c.referenceKey ?? c.id;
+}
+
+export const confidenceWords: Record<NonNullable<Chemical['solubility']>['confidence'], string> = {
+  confirmed: 'confirmed in the source',
+  derived: 'derived from the source',
+  memory: 'from memory, unconfirmed',
+};
+
+export const NO_SOLUBILITY = 'No solubility data: batches with it get no saturation check';
+
+/** Reproductive-toxicity codes (H360…, the borates' H360FD) get the caution colours. */
+function isSevere(code: string): boolean {
+  return code.trim().toUpperCase().startsWith('H360');
+}
+
+export function HazardBadge({ code }: { code: string }) {
+  const severe = isSevere(code);
+  return (
+    <View style={[styles.badge, severe && styles.badgeSevere]} testID={`hazard-${code}`}>
+      <AppText variant="small" style={[styles.badgeText, severe && styles.badgeTextSevere]}>
+        {code}
+      </AppText>
+    </View>
+  );
+}
+
+export function OriginTag({ reference }: { reference: boolean }) {
+  return (
+    <View style={styles.origin}>
+      <AppText variant="small" tone="muted">
+        {reference ? 'Reference' : "This lab's own"}
+      </AppText>
+    </View>
+  );
+}
+
+function ChemicalCard({ chemical, labId }: { chemical: Chemical; labId: string }) {
+  const c = chemical;
+  const facts = [
+    c.formula,
+    c.molarMass !== null ? `${c.molarMass.toFixed(2)} g/mol` : null,
+    c.boronPercent !== null ? `Boron ${c.boronPercent.toFixed(2)} %` : null,
+  ].filter((f): f is string => Boolean(f));
+  return (
+    <View style={styles.cardWrap}>
+      <Card testID={`chemical-${chemicalHandle(c)}`} gap="sm">
+        <View style={styles.cardHead}>
+          <Link
+            href={`/labs/${labId}/chemicals/${c.id}` as never}
+            testID={`chemical-link-${chemicalHandle(c)}`}
+            style={styles.nameLink}
+          >
+            <AppText variant="heading" style={styles.linkText}>
+              {c.name}
+            </AppText>
+          </Link>
+          <OriginTag reference={c.reference} />
+        </View>
+        {facts.length ? <AppText>{facts.join(' · ')}</AppText> : null}
+        {c.hazards.length ? (
+          <View style={styles.badges} aria-label="Hazard codes">
+            {c.hazards.map((h) => (
+              <HazardBadge key={h.code} code={h.code} />
+            ))}
+          </View>
+        ) : null}
+        <AppText variant="small" tone="muted" testID="solubility-summary">
+          {c.solubility ? `Solubility: ${c.solubility.summary}` : NO_SOLUBILITY}
+        </AppText>
+      </Card>
+    </View>
+  );
+}
+
+// Form inputs arrive as text: blank means "not given", a decimal comma is accepted.
+const blankToUndefined = (v: unknown) => {
+  if (typeof v !== 'string') return v;
+  const t = v.trim();
+  return t === '' ? undefined : t;
+};
+const numberText = (v: unknown) => {
+  const t = blankToUndefined(v);
+  return typeof t === 'string' ? t.replace(',', '.') : t;
+};
+const optionalText = (max: number) =>
+  z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .min(2, 'Use at least 2 characters')
+      .max(max, `Use at most ${max} characters`)
+      .optional(),
+  );
+
+const addChemicalFormSchema = z
+  .object({
+    name: createChemicalSchema.shape.name,
+    formula: z.preprocess(
+      blankToUndefined,
+      z.string().max(60, 'Use at most 60 characters').optional(),
+    ),
+    molarMass: z.preprocess(
+      numberText,
+      z.coerce
+        .number({ error: 'Enter the molar mass as a number, e.g. 132.06' })
+        .positive('The molar mass must be more than 0')
+        .max(10_000, 'That molar mass is too large')
+        .optional(),
+    ),
+    boronPercent: z.preprocess(
+      numberText,
+      z.coerce
+        .number({ error: 'Enter the boron content as a number, e.g. 11.3' })
+        .min(0, 'Use a percentage from 0 to 100')
+        .max(100, 'Use a percentage from 0 to 100')
+        .optional(),
+    ),
+    hazardCode: optionalText(20),
+    hazardText: optionalText(300),
+  })
+  .superRefine((v, ctx) => {
+    if (v.hazardCode && !v.hazardText) {
+      ctx.addIssue({ code: 'custom', path: ['hazardText'], message: 'Say what the hazard is' });
+    }
+    if (v.hazardText && !v.hazardCode) {
+      ctx.addIssue({ code: 'custom', path: ['hazardCode'], message: 'Give the hazard code' });
+    }
+  })
+  .transform((v): CreateChemicalInput => ({
+    name: v.name,
+    formula: v.formula,
+    molarMass: v.molarMass,
+    boronPercent: v.boronPercent,
+    hazards: v.hazardCode && v.hazardText ? [{ code: v.hazardCode, text: v.hazardText }] : [],
+  }));
+
+const emptyForm = {
+  name: '',
+  formula: '',
+  molarMass: '',
+  boronPercent: '',
+  hazardCode: '',
+  hazardText: '',
+};
+
+function AddChemicalForm({ labId }: { labId: string }) {
+  const form = useZodForm(addChemicalFormSchema, emptyForm);
+  const create = useCreateChemicalMutation(labId);
+  const [added, setAdded] = useState<string>();
+
+  const { banner, submit } = useSubmit(form, async (values) => {
+    setAdded(undefined);
+    const chemical = await create.mutateAsync(values);
+    setAdded(chemical.name);
+    form.reset(emptyForm);
+  });
+
+  return (
+    <FormStack banner={banner}>
+      {added ? (
+        <Banner
+          tone="success"
+          testID="chemical-added"
+          message={`${added} is now in the library.`}
+        />
+      ) : null}
+      <FormTextField control={form.control} name="name" label="Name" />
+      <FormTextField
+        control={form.control}
+        name="formula"
+        label="Formula (optional)"
+        autoCapitalize="none"
+        autoCorrect={false}
+      />
+      <FormTextField
+        control={form.control}
+        name="molarMass"
+        label="Molar mass, g/mol (optional)"
+        inputMode="decimal"
+        keyboardType="decimal-pad"
+      />
+      <FormTextField
+        control={form.control}
+        name="boronPercent"
+        label="Boron, % by mass (optional)"
+        inputMode="decimal"
+        keyboardType="decimal-pad"
+        hint="Only for chemicals that contain boron; it counts toward a batch's boron content."
+      />
+      <FormTextField
+        control={form.control}
+        name="hazardCode"
+        label="Hazard code (optional)"
+        autoCapitalize="characters"
+        autoCorrect={false}
+        hint="For example H319. Give the code and its text together."
+      />
+      <FormTextField
+        control={form.control}
+        name="hazardText"
+        label="Hazard text (optional)"
+        hint="In plain words, as on the label or safety data sheet."
+      />
+      <AppText variant="small" tone="muted">
+        Solubility data cannot be added here yet, so batches using this chemical get no saturation
+        check.
+      </AppText>
+      <Button
+        label="Add to the library"
+        onPress={submit}
+        busy={create.isPending}
+        testID="add-chemical-submit"
+      />
+    </FormStack>
+  );
+}
+
+export function ChemicalsScreen() {
+  const { lab, can } = useLab();
+  const chemicals = useChemicalsQuery(lab.id);
+  const list = chemicals.data?.chemicals ?? [];
+  const own = list.filter((c) => !c.reference).length;
+
+  return (
+    <View style={styles.screen}>
+      <AppText variant="title" accessibilityRole="header" aria-level={1} testID="section-title">
+        Chemicals
+      </AppText>
+      <AppText>
+        The salts your recipes can use: the reference chemicals every lab shares, and{' '}
+        {ownWords(own)} of {lab.name}'s own. Open one for its hazards and solubility table.
+      </AppText>
+      {chemicals.error ? (
+        <Banner tone="error" message={bannerMessage(chemicals.error)} testID="chemicals-error" />
+      ) : null}
+      {chemicals.isPending ? <AppText tone="muted">Loading the library…</AppText> : null}
+      <View style={styles.grid} testID="chemicals-list">
+        {list.map((c) => (
+          <ChemicalCard key={c.id} chemical={c} labId={lab.id} />
+        ))}
+      </View>
+      {chemicals.data && list.length === 0 ? (
+        <AppText tone="muted">The library is empty.</AppText>
+      ) : null}
+      {can('edit') ? (
+        <Card testID="add-chemical" gap="lg">
+          <AppText variant="heading" accessibilityRole="header" aria-level={2}>
+            Add a chemical of your own
+          </AppText>
+          <AppText>
+            Only {lab.name} sees it. Name it plainly, so everyone in the lab knows which product it
+            is.
+          </AppText>
+          <AddChemicalForm labId={lab.id} />
+        </Card>
+      ) : null}
+    </View>
+  );
+}
+
+function ownWords(count: number): string {
+  if (count === 0) return 'no chemicals';
+  return count === 1 ? 'one chemical' : `${count} chemicals`;
+}
+
+const styles = StyleSheet.create({
+  screen: { gap: space.lg },
+  grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  cardWrap: { flexGrow: 1, flexBasis: 340, maxWidth: '100%' },
+  cardHead: {
+    flexDirection: 'row',
+    flexWrap: 'wrap',
+    alignItems: 'center',
+    justifyContent: 'space-between',
+    gap: space.sm,
+  },
+  nameLink: { flexShrink: 1 },
+  linkText: { color: colors.primary, textDecorationLine: 'underline' },
+  badges: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xs },
+  badge: {
+    borderWidth: 1,
+    borderColor: colors.line,
+    borderRadius: radius.sm,
+    paddingHorizontal: space.sm,
+    paddingVertical: 2,
+    backgroundColor: colors.surface,
+  },
+  badgeSevere: { borderColor: colors.caution, backgroundColor: colors.cautionBg },
+  badgeText: { fontSize: 13, lineHeight: 18 },
+  badgeTextSevere: { color: colors.caution, fontFamily: fonts.bold },
+  origin: {
+    borderRadius: radius.sm,
+    backgroundColor: colors.paper,
+    paddingHorizontal: space.sm,
+    paddingVertical: 2,
+  },
+});
