@@ -1,5 +1,5 @@
 import { DEMO_LAB_NAME, demoPeople, loadDemoData } from '../../fixtures/demo';
-import { createMigrator } from '../../server/migrate';
+import { createMigrator, migrateUp } from '../../server/migrate';
 import { LabModel, MembershipModel, UserModel } from '../../server/models';
 import { buildApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
@@ -26,7 +26,7 @@ describe('migrations', () => {
     await migrator.down({ to: 0 });
     const [tables] = await db.sequelize.query("SELECT to_regclass('public.labs') AS t");
     expect(tables).toEqual([{ t: null }]);
-    await migrator.up();
+    await migrateUp(db.sequelize);
     expect((await migrator.executed()).map((m) => m.name)).toEqual([
       '0001-labs',
       '0002-accounts',
@@ -50,6 +50,10 @@ describe('demo data', () => {
       where: { labId: lab!.id },
       include: [{ model: UserModel, as: 'user' }],
     });
+    const [counts] = await db.sequelize.query(
+      'SELECT (SELECT count(*) FROM recipes)::int AS recipes, (SELECT count(*) FROM batches)::int AS batches',
+    );
+    expect(counts).toEqual([{ recipes: 3, batches: 3 }]);
     expect(members.map((m) => [m.user!.email, m.role]).sort()).toEqual(
       demoPeople.map((p) => [p.email, p.role]).sort(),
     );
