@@ -42,3 +42,11 @@ export function formatWhen(iso: string | null | undefined): string {
   if (!iso) return '–';
   return new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 }
+
+/** Typed text → number: empty is "not given" (undefined); a comma works as the decimal mark. */
+export function parseNumber(text: string): number | undefined {
+  const t = text.trim().replace(',', '.');
+  if (t === '') return undefined;
+  const n = Number(t);
+  return Number.isFinite(n) ? n : Number.NaN;
+}

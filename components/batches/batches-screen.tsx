@@ -5,9 +5,10 @@ import { batchStatuses, type BatchStatus } from '../../shared/schemas/batch';
 import { useBatchesQuery } from '../api/batches';
 import { bannerMessage } from '../api/error-messages';
 import { useLab } from '../lab-context';
-import { colors, space } from '../theme';
+import { space } from '../theme';
 import { Banner } from '../ui/banner';
 import { Card } from '../ui/card';
+import { ScreenHeader } from '../ui/screen-header';
 import { Choice } from '../ui/choice';
 import { AppText } from '../ui/text';
 import { formatWhen, useUnitSystem } from '../units';
@@ -27,22 +28,14 @@ export function BatchesScreen() {
   const list = batches.data?.batches ?? [];
   return (
     <View style={styles.screen}>
-      <View style={styles.head}>
-        <AppText variant="title" accessibilityRole="header" aria-level={1} testID="section-title">
-          Batches
-        </AppText>
-        {can('edit') ? (
-          <Link
-            href={`/labs/${lab.id}/batches/new` as never}
-            testID="new-batch"
-            style={styles.action}
-          >
-            <AppText variant="label" style={{ color: colors.onPrimary }}>
-              Prepare a batch
-            </AppText>
-          </Link>
-        ) : null}
-      </View>
+      <ScreenHeader
+        title="Batches"
+        action={
+          can('edit')
+            ? { href: `/labs/${lab.id}/batches/new`, label: 'Prepare a batch', testID: 'new-batch' }
+            : undefined
+        }
+      />
       <AppText>
         Each preparation of a recipe: what was weighed, by whom and when, and the specimens treated
         in it.
@@ -86,17 +79,4 @@ export function BatchesScreen() {
 
 const styles = StyleSheet.create({
   screen: { gap: space.lg },
-  head: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    justifyContent: 'space-between',
-    gap: space.md,
-    flexWrap: 'wrap',
-  },
-  action: {
-    backgroundColor: colors.primary,
-    paddingHorizontal: space.lg,
-    paddingVertical: space.md,
-    borderRadius: 6,
-  },
 });

@@ -24,7 +24,7 @@ import { Card } from '../ui/card';
 import { Choice } from '../ui/choice';
 import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
-import { round, useUnitSystem } from '../units';
+import { parseNumber, round, useUnitSystem } from '../units';
 import { Cautions } from './cautions';
 import { PlanView } from './plan-view';
 
@@ -34,13 +34,6 @@ const basisLabels: Record<Basis, string> = {
   water_mass: 'Mass of water',
   solution_mass: 'Mass of solution',
 };
-
-function num(text: string): number | undefined {
-  const t = text.trim().replace(',', '.');
-  if (!t) return undefined;
-  const n = Number(t);
-  return Number.isFinite(n) ? n : undefined;
-}
 
 export function NewBatchScreen({ recipeId: initialRecipe }: { recipeId?: string }) {
   const { lab, can } = useLab();
@@ -67,11 +60,11 @@ export function NewBatchScreen({ recipeId: initialRecipe }: { recipeId?: string 
 
   const recipe = recipes.data?.recipes.find((r) => r.id === recipeId);
   const celsius = (t: string) => {
-    const n = num(t);
-    return n === undefined ? undefined : units === 'us' ? fToC(n) : n;
+    const n = parseNumber(t);
+    return n === undefined || Number.isNaN(n) ? undefined : units === 'us' ? fToC(n) : n;
   };
   const target = useMemo<BatchTargetInput | undefined>(() => {
-    const n = num(size);
+    const n = parseNumber(size);
     if (!n || n <= 0) return undefined;
     return basis === 'water_volume'
       ? { basis, millilitres: toMillilitres(n, volumeUnit) }
@@ -87,7 +80,7 @@ export function NewBatchScreen({ recipeId: initialRecipe }: { recipeId?: string 
   const tolerance = labInfo.data?.weighTolerancePct ?? 2;
   const weighUnit = units === 'us' ? 'oz' : 'g';
   const toG = (text: string) => {
-    const n = num(text);
+    const n = parseNumber(text);
     return n === undefined ? undefined : units === 'us' ? n * GRAMS_PER_OZ : n;
   };
   const used = (chemicals.data?.chemicals ?? []).filter((c) =>

@@ -11,14 +11,7 @@ import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
 import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
-import { formatLength, formatMass, round, useUnitSystem } from '../units';
-
-function num(text: string): number | undefined {
-  const t = text.trim().replace(',', '.');
-  if (!t) return undefined;
-  const n = Number(t);
-  return Number.isFinite(n) ? n : Number.NaN;
-}
+import { formatLength, formatMass, parseNumber, round, useUnitSystem } from '../units';
 
 const empty = { code: '', lengthMm: '', widthMm: '', dryBefore: '', wet: '', dryAfter: '' };
 
@@ -44,11 +37,11 @@ export function SpecimenLog({
   const [later, setLater] = useState<Record<string, string>>({});
   const massUnit = units === 'us' ? 'oz' : 'g';
   const toG = (t: string) => {
-    const n = num(t);
+    const n = parseNumber(t);
     return n === undefined || Number.isNaN(n) ? n : units === 'us' ? n * GRAMS_PER_OZ : n;
   };
   const toMm = (t: string) => {
-    const n = num(t);
+    const n = parseNumber(t);
     return n === undefined || Number.isNaN(n) ? n : units === 'us' ? n * 25.4 : n;
   };
   const set = (key: keyof typeof empty) => (value: string) =>

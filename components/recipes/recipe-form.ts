@@ -8,6 +8,7 @@ import {
 } from '../../shared/schemas/recipe';
 import type { UnitSystem } from '../../shared/schemas/roles';
 import { cToF, fToC } from '../../shared/units';
+import { parseNumber } from '../units';
 
 /** What the editor's inputs hold: text as typed, temperatures in the person's units. */
 export type RecipeFormValues = {
@@ -73,14 +74,6 @@ export const emptyRecipeForm = (units: UnitSystem): RecipeFormValues => ({
   notes: '',
 });
 
-/** Typed text → number; empty means "not given"; a comma works as the decimal mark. */
-function num(value: string): number | undefined {
-  const t = value.trim().replace(',', '.');
-  if (t === '') return undefined;
-  const n = Number(t);
-  return Number.isFinite(n) ? n : Number.NaN;
-}
-
 /** Which input shows an error the schema reports on a field. */
 const formField: Record<string, keyof RecipeFormValues> = {
   mixingTempC: 'mixingTemp',
@@ -96,26 +89,26 @@ export function toRecipeInput(
   units: UnitSystem,
 ): { ok: true; input: RecipeInput } | { ok: false; errors: { path: string; message: string }[] } {
   const celsius = (s: string) => {
-    const n = num(s);
+    const n = parseNumber(s);
     return n === undefined || Number.isNaN(n) || units === 'metric' ? n : fToC(n);
   };
-  const hours = num(v.dryingHours);
+  const hours = parseNumber(v.dryingHours);
   const candidate = {
     name: v.name,
     substrate: v.substrate,
     ingredients: v.ingredients.map((i) => ({
       chemicalId: i.chemicalId,
-      amount: num(i.amount),
+      amount: parseNumber(i.amount),
       unit: i.unit,
     })),
-    waterParts: num(v.waterParts),
+    waterParts: parseNumber(v.waterParts),
     mixingTempC: celsius(v.mixingTemp),
-    soakMinutes: num(v.soakMinutes),
-    drainMinutes: num(v.drainMinutes),
+    soakMinutes: parseNumber(v.soakMinutes),
+    drainMinutes: parseNumber(v.drainMinutes),
     dryingMethod: v.dryingMethod,
     dryingMinutes: hours === undefined ? undefined : hours * 60,
     dryingTempC: celsius(v.dryingTemp),
-    dryingRhPct: num(v.dryingRhPct),
+    dryingRhPct: parseNumber(v.dryingRhPct),
     conditioning: v.conditioning.trim() || undefined,
     notes: v.notes.trim() || undefined,
   };

@@ -8,6 +8,7 @@ import { useLab } from '../lab-context';
 import { colors, space } from '../theme';
 import { Banner } from '../ui/banner';
 import { Card } from '../ui/card';
+import { ScreenHeader } from '../ui/screen-header';
 import { Choice } from '../ui/choice';
 import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
@@ -28,22 +29,14 @@ export function RecipesScreen() {
 
   return (
     <View style={styles.screen}>
-      <View style={styles.head}>
-        <AppText variant="title" accessibilityRole="header" aria-level={1} testID="section-title">
-          Recipes
-        </AppText>
-        {can('edit') ? (
-          <Link
-            href={`/labs/${lab.id}/recipes/new` as never}
-            testID="new-recipe"
-            style={styles.action}
-          >
-            <AppText variant="label" style={{ color: colors.onPrimary }}>
-              New recipe
-            </AppText>
-          </Link>
-        ) : null}
-      </View>
+      <ScreenHeader
+        title="Recipes"
+        action={
+          can('edit')
+            ? { href: `/labs/${lab.id}/recipes/new`, label: 'New recipe', testID: 'new-recipe' }
+            : undefined
+        }
+      />
       <AppText>
         Soak recipes: what to dissolve, how much, and how to soak, drain, dry and condition.
       </AppText>
@@ -102,17 +95,4 @@ export function RecipesScreen() {
 
 const styles = StyleSheet.create({
   screen: { gap: space.lg },
-  head: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    justifyContent: 'space-between',
-    gap: space.md,
-    flexWrap: 'wrap',
-  },
-  action: {
-    backgroundColor: colors.primary,
-    paddingHorizontal: space.lg,
-    paddingVertical: space.md,
-    borderRadius: 6,
-  },
 });

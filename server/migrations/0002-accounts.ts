@@ -1,21 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize';
-
-const id = (qi: QueryInterface) => ({
-  type: DataTypes.UUID,
-  primaryKey: true,
-  defaultValue: qi.sequelize.literal('gen_random_uuid()'),
-});
-const stamp = (qi: QueryInterface) => ({
-  type: DataTypes.DATE,
-  allowNull: false,
-  defaultValue: qi.sequelize.literal('now()'),
-});
-const ref = (table: string, onDelete: 'CASCADE' | 'SET NULL', allowNull = false) => ({
-  type: DataTypes.UUID,
-  allowNull,
-  references: { model: table, key: 'id' },
-  onDelete,
-});
+import { reference as ref, timestamp as stamp, uuidKey as id } from '../migration-columns';
 
 export async function up(qi: QueryInterface): Promise<void> {
   await qi.sequelize.transaction(async (transaction) => {

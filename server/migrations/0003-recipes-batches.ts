@@ -1,21 +1,6 @@
 import { DataTypes, type QueryInterface } from 'sequelize';
+import { reference as ref, timestamp as stamp, uuidKey as id } from '../migration-columns';
 
-const id = (qi: QueryInterface) => ({
-  type: DataTypes.UUID,
-  primaryKey: true,
-  defaultValue: qi.sequelize.literal('gen_random_uuid()'),
-});
-const stamp = (qi: QueryInterface) => ({
-  type: DataTypes.DATE,
-  allowNull: false,
-  defaultValue: qi.sequelize.literal('now()'),
-});
-const ref = (table: string, onDelete: 'CASCADE' | 'SET NULL' | 'RESTRICT', allowNull = false) => ({
-  type: DataTypes.UUID,
-  allowNull,
-  references: { model: table, key: 'id' },
-  onDelete,
-});
 const num = (allowNull = true) => ({ type: DataTypes.DOUBLE, allowNull });
 const text = (allowNull = true) => ({ type: DataTypes.TEXT, allowNull });
 
