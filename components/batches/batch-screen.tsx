@@ -71,6 +71,11 @@ export function BatchScreen({ batchId }: { batchId: string }) {
           {targetText(batch.target, units)} · stored at{' '}
           {formatTemperature(batch.storageTempC, units)} · tolerance ±{round(batch.tolerancePct, 2)}{' '}
           %
+          {batch.waterTempC !== null
+            ? ` · mixed at ${formatTemperature(batch.waterTempC, units)}`
+            : ''}
+          {batch.ph !== null ? ` · pH ${round(batch.ph, 2)}` : ''}
+          {batch.densityGMl !== null ? ` · ${round(batch.densityGMl, 3)} g/mL` : ''}
         </AppText>
         {batch.weighIns.map((w) => (
           <View key={w.chemicalId} style={styles.row} testID={`weighed-row-${w.name}`}>

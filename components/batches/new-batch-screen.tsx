@@ -52,6 +52,8 @@ export function NewBatchScreen({ recipeId: initialRecipe }: { recipeId?: string 
   const [size, setSize] = useState('');
   const [storage, setStorage] = useState(units === 'us' ? '68' : '20');
   const [waterTemp, setWaterTemp] = useState('');
+  const [ph, setPh] = useState('');
+  const [density, setDensity] = useState('');
   const [weighed, setWeighed] = useState<Record<string, string>>({});
   const [lots, setLots] = useState<Record<string, string>>({});
   const [acknowledged, setAcknowledged] = useState(false);
@@ -102,6 +104,8 @@ export function NewBatchScreen({ recipeId: initialRecipe }: { recipeId?: string 
         target,
         storageTempC: storageC ?? 20,
         ...(celsius(waterTemp) !== undefined ? { waterTempC: celsius(waterTemp)! } : {}),
+        ...(parseNumber(ph) !== undefined ? { ph: parseNumber(ph)! } : {}),
+        ...(parseNumber(density) !== undefined ? { densityGMl: parseNumber(density)! } : {}),
         weighIns: plan.data.ingredients.map((i) => ({
           chemicalId: i.key,
           weighedG: toG(weighed[i.key] ?? '') ?? 0,
@@ -244,6 +248,24 @@ export function NewBatchScreen({ recipeId: initialRecipe }: { recipeId?: string 
                 </View>
               );
             })}
+          </Card>
+          <Card title="Measured (optional)">
+            <TextField
+              label="pH of the solution"
+              value={ph}
+              onChangeText={setPh}
+              inputMode="decimal"
+              testID="batch-ph"
+              error={fieldErrors.ph}
+            />
+            <TextField
+              label="Density (g/mL)"
+              value={density}
+              onChangeText={setDensity}
+              inputMode="decimal"
+              testID="batch-density"
+              error={fieldErrors.densityGMl}
+            />
           </Card>
           <Cautions
             chemicals={used}

@@ -19,6 +19,7 @@ import { Card } from '../ui/card';
 import { Choice } from '../ui/choice';
 import { AppText } from '../ui/text';
 import { InviteForm } from './invite-form';
+import { LabSettings } from './lab-settings';
 import { roleLabels, roleOptions } from './role-words';
 
 function MemberRow({
@@ -132,6 +133,8 @@ export function MembersScreen() {
           />
         ))}
       </Card>
+
+      {manage ? <LabSettings labId={lab.id} /> : null}
 
       {manage ? (
         <Card testID="invite" gap="lg">

@@ -1,4 +1,8 @@
+import { randomUUID } from 'node:crypto';
 import request from 'supertest';
+import { ChemicalModel } from '../../server/models';
+import { addSpecimen, createBatch } from '../../server/services/batches';
+import { createRecipe } from '../../server/services/recipes';
 import type { Role } from '../../shared/schemas/roles';
 import {
   bearer,
@@ -33,15 +37,59 @@ beforeAll(async () => {
 
 const call = (method: Route['method'], path: string) => request(t.app)[method](path);
 
-type Capability = 'read' | 'manage';
+type Capability = 'read' | 'edit' | 'manage';
 type Route = {
   name: string;
-  method: 'get' | 'post' | 'patch' | 'delete';
+  method: 'get' | 'post' | 'put' | 'patch' | 'delete';
   capability: Capability;
   ok: number;
   /** Builds the path (and body) against a lab, making a fresh target where the call changes one. */
   prepare: (lab: Lab) => Promise<{ path: string; body?: object }>;
 };
+
+// Records to act on, made through the services as the lab's manager.
+async function boricId(): Promise<string> {
+  const row = await ChemicalModel.findOne({ where: { labId: null, referenceKey: 'boric-acid' } });
+  return row!.id;
+}
+async function recipeIn(lab: Lab) {
+  return createRecipe(lab.id, lab.manager.userId, {
+    name: `Recipe ${randomUUID().slice(0, 8)}`,
+    substrate: 'paper',
+    ingredients: [{ chemicalId: await boricId(), amount: 4, unit: 'g_per_100g_water' }],
+    mixingTempC: 30,
+    soakMinutes: 10,
+    dryingMethod: 'air',
+  });
+}
+const batchInput = (revisionId: string, chemicalId: string) => ({
+  clientId: randomUUID(),
+  recipeRevisionId: revisionId,
+  target: { basis: 'water_mass' as const, grams: 1000 },
+  storageTempC: 25,
+  weighIns: [{ chemicalId, weighedG: 40 }],
+  cautionsAcknowledged: true as const,
+});
+async function batchIn(lab: Lab) {
+  const recipe = await recipeIn(lab);
+  return (
+    await createBatch(lab.id, lab.manager.userId, batchInput(recipe.current.id, await boricId()))
+  ).batch;
+}
+const recipeBody = async () => ({
+  name: `Recipe ${randomUUID().slice(0, 8)}`,
+  substrate: 'paper',
+  ingredients: [{ chemicalId: await boricId(), amount: 4, unit: 'g_per_100g_water' }],
+  mixingTempC: 30,
+  soakMinutes: 10,
+  dryingMethod: 'air',
+});
+const specimenBody = () => ({
+  clientId: randomUUID(),
+  code: `S-${randomUUID().slice(0, 6)}`,
+  substrate: 'paper',
+  dryMassBeforeG: 2,
+});
 
 const routes: Route[] = [
   {
@@ -117,8 +165,158 @@ const routes: Route[] = [
   },
 ];
 
+routes.push(
+  {
+    name: 'list chemicals',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/chemicals` }),
+  },
+  {
+    name: 'read a chemical',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/chemicals/${await boricId()}` }),
+  },
+  {
+    name: 'add a chemical',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/chemicals`,
+      body: { name: `Salt ${randomUUID().slice(0, 8)}` },
+    }),
+  },
+  {
+    name: 'list recipes',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/recipes` }),
+  },
+  {
+    name: 'write a recipe',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/recipes`, body: await recipeBody() }),
+  },
+  {
+    name: 'read a recipe',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/recipes/${(await recipeIn(lab)).id}` }),
+  },
+  {
+    name: 'edit a recipe',
+    method: 'put',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/recipes/${(await recipeIn(lab)).id}`,
+      body: await recipeBody(),
+    }),
+  },
+  {
+    name: 'read recipe history',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/recipes/${(await recipeIn(lab)).id}/revisions`,
+    }),
+  },
+  {
+    name: 'plan a batch',
+    method: 'post',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/batch-plans`,
+      body: {
+        recipeRevisionId: (await recipeIn(lab)).current.id,
+        target: { basis: 'water_mass', grams: 500 },
+        storageTempC: 20,
+      },
+    }),
+  },
+  {
+    name: 'list batches',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/batches` }),
+  },
+  {
+    name: 'record a batch',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/batches`,
+      body: batchInput((await recipeIn(lab)).current.id, await boricId()),
+    }),
+  },
+  {
+    name: 'read a batch',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/batches/${(await batchIn(lab)).id}` }),
+  },
+  {
+    name: 'update a batch',
+    method: 'patch',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/batches/${(await batchIn(lab)).id}`,
+      body: { notes: 'Stirred twice' },
+    }),
+  },
+  {
+    name: 'log a specimen',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/batches/${(await batchIn(lab)).id}/specimens`,
+      body: specimenBody(),
+    }),
+  },
+  {
+    name: 'weigh a specimen after drying',
+    method: 'patch',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => {
+      const batch = await batchIn(lab);
+      const { specimen } = await addSpecimen(lab.id, batch.id, specimenBody());
+      return {
+        path: `/api/labs/${lab.id}/batches/${batch.id}/specimens/${specimen.id}`,
+        body: { dryMassAfterG: 2.1 },
+      };
+    },
+  },
+  {
+    name: 'change lab settings',
+    method: 'patch',
+    capability: 'manage',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/settings`,
+      body: { weighTolerancePct: 3 },
+    }),
+  },
+);
+
 const roles: Role[] = ['manager', 'technician', 'reviewer', 'viewer'];
-const allowed = (role: Role, capability: Capability) => capability === 'read' || role === 'manager';
+const allowed = (role: Role, capability: Capability) =>
+  capability === 'read' || role === 'manager' || (capability === 'edit' && role === 'technician');
 
 const cases = routes.flatMap((route) =>
   roles.flatMap((role) =>
