@@ -139,8 +139,49 @@ const addChemicalFormSchema = z
     ),
     hazardCode: optionalText(20),
     hazardText: optionalText(300),
+    solubilityLines: z.string().max(2000),
+    solubilitySource: optionalText(300),
   })
   .superRefine((v, ctx) => {
+    const lines = v.solubilityLines
+      .split('\n')
+      .map((l) => l.trim())
+      .filter(Boolean);
+    lines.forEach((line) => {
+      const parts = line
+        .replace(/,/g, '.')
+        .split(/[\s;:]+/)
+        .map(Number);
+      if (parts.length !== 2 || parts.some((n) => !Number.isFinite(n))) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['solubilityLines'],
+          message: `Write "${line}" as a temperature and a value, e.g. 20 4.87`,
+        });
+      }
+    });
+    const temps = lines.map((l) => Number(l.replace(/,/g, '.').split(/[\s;:]+/)[0]));
+    if (temps.some((t, i) => i > 0 && !(t > temps[i - 1]!))) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['solubilityLines'],
+        message: 'List the temperatures in rising order',
+      });
+    }
+    if (lines.length === 1) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['solubilityLines'],
+        message: 'Give at least two temperatures',
+      });
+    }
+    if (lines.length && !v.solubilitySource) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['solubilitySource'],
+        message: 'Say where the data come from',
+      });
+    }
     if (v.hazardCode && !v.hazardText) {
       ctx.addIssue({ code: 'custom', path: ['hazardText'], message: 'Say what the hazard is' });
     }
@@ -154,6 +195,25 @@ const addChemicalFormSchema = z
     molarMass: v.molarMass,
     boronPercent: v.boronPercent,
     hazards: v.hazardCode && v.hazardText ? [{ code: v.hazardCode, text: v.hazardText }] : [],
+    ...(v.solubilityLines.trim() && v.solubilitySource
+      ? {
+          solubility: {
+            basis: 'g_per_100g_water' as const,
+            source: v.solubilitySource,
+            points: v.solubilityLines
+              .split('\n')
+              .map((l) => l.trim())
+              .filter(Boolean)
+              .map((l) => {
+                const [tempC, value] = l
+                  .replace(/,/g, '.')
+                  .split(/[\s;:]+/)
+                  .map(Number);
+                return { tempC: tempC!, value: value! };
+              }),
+          },
+        }
+      : {}),
   }));
 
 const emptyForm = {
@@ -163,6 +223,8 @@ const emptyForm = {
   boronPercent: '',
   hazardCode: '',
   hazardText: '',
+  solubilityLines: '',
+  solubilitySource: '',
 };
 
 function AddChemicalForm({ labId }: { labId: string }) {
@@ -223,10 +285,19 @@ function AddChemicalForm({ labId }: { labId: string }) {
         label="Hazard text (optional)"
         hint="In plain words, as on the label or safety data sheet."
       />
-      <AppText variant="small" tone="muted">
-        Solubility data cannot be added here yet, so batches using this chemical get no saturation
-        check.
-      </AppText>
+      <FormTextField
+        control={form.control}
+        name="solubilityLines"
+        label="Solubility, g per 100 g water (optional)"
+        multiline
+        hint="One line per temperature in °C, rising: the temperature, then the value, e.g. 20 4.87. Without data, batches with this chemical get no saturation check."
+      />
+      <FormTextField
+        control={form.control}
+        name="solubilitySource"
+        label="Source of the solubility data"
+        hint="Handbook, data sheet or paper, with the page or table."
+      />
       <Button
         label="Add to the library"
         onPress={submit}

@@ -168,3 +168,27 @@ describe('chemicals, recipe history and the batch sheet', () => {
     await context.close();
   });
 });
+
+describe('a lab chemical with solubility data', () => {
+  it('is added from the library screen and then shows its table', async () => {
+    const seeded = await seedLab(server.deps, 'Own chemical lab');
+    const context = await browser.newContext({ viewport: viewports.phone });
+    const page = await context.newPage();
+    const errors = collectPageErrors(page);
+    await signInThroughUi(page, server.url, seeded.people.technician.email);
+    await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
+    await page.goto(`${server.url}/labs/${seeded.labId}/chemicals`);
+    await page.getByTestId('field-name').fill('Workshop borate blend');
+    await page.getByTestId('field-solubilityLines').fill('10 12\n30 20\n50 31');
+    await page
+      .getByTestId('field-solubilitySource')
+      .fill('Supplier data sheet, table 2 (invented for this test)');
+    await page.getByTestId('add-chemical-submit').click();
+    await page.getByTestId('chemical-added').waitFor();
+    await page.getByText('Workshop borate blend').first().click();
+    await page.getByTestId('solubility-table').waitFor();
+    await page.getByTestId('solubility-row-30').waitFor();
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+});
