@@ -1,3 +1,4 @@
+import path from 'node:path';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
@@ -9,8 +10,10 @@ import { authenticate } from './middleware/auth';
 import { apiNotFound, errorHandler } from './middleware/error';
 import { createRegistry, generateDocument } from './openapi';
 import type { PasswordHasher } from './passwords/hasher';
+import { createDiskPhotoStore } from './photos/store';
 import { authRouter, registerAuthDocs } from './routes/auth';
 import { batchesRouter, registerBatchDocs } from './routes/batches';
+import { burnTestsRouter, registerBurnDocs } from './routes/burn-tests';
 import { devMailRouter } from './routes/dev-mail';
 import { healthRouter, registerHealthDocs } from './routes/health';
 import { invitationsRouter, registerInvitationDocs } from './routes/invitations';
@@ -79,6 +82,8 @@ export function createApp({
   registerRecipeDocs(docs);
   api.use(batchesRouter());
   registerBatchDocs(docs);
+  api.use(burnTestsRouter(createDiskPhotoStore(path.join(config.dataDir, 'photos'))));
+  registerBurnDocs(docs);
 
   const openapi = generateDocument(docs, config.version);
   api.get('/openapi.json', (_req, res) => {

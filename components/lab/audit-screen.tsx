@@ -23,6 +23,11 @@ const actionWords: Record<AuditAction, string> = {
   invitation_accepted: 'Accepted an invitation',
   role_changed: 'Changed a role',
   member_removed: 'Removed a member',
+  checklist_completed: 'Completed a burn safety checklist',
+  pair_submitted: 'Submitted a burn test for review',
+  pair_signed_off: 'Signed off a burn test',
+  pair_returned: 'Returned a burn test',
+  measurement_corrected: 'Corrected a signed-off measurement',
 };
 
 function describe(e: AuditEvent): string {

@@ -1,12 +1,17 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEventModel } from './audit-event';
 import { BatchModel } from './batch';
+import { BurnPairModel } from './burn-pair';
+import { BurnSessionModel } from './burn-session';
 import { ChemicalModel } from './chemical';
 import { IngredientModel } from './ingredient';
 import { InvitationModel } from './invitation';
 import { LabModel } from './lab';
+import { MarkModel } from './mark';
+import { MeasurementModel } from './measurement';
 import { MembershipModel } from './membership';
 import { PasswordResetModel } from './password-reset';
+import { PhotoModel } from './photo';
 import { RecipeModel } from './recipe';
 import { RecipeRevisionModel } from './recipe-revision';
 import { SessionModel } from './session';
@@ -17,6 +22,11 @@ import { WeighInModel } from './weigh-in';
 export {
   AuditEventModel,
   BatchModel,
+  BurnPairModel,
+  BurnSessionModel,
+  MarkModel,
+  MeasurementModel,
+  PhotoModel,
   ChemicalModel,
   IngredientModel,
   RecipeModel,
@@ -47,6 +57,11 @@ export function initModels(sequelize: Sequelize): void {
     BatchModel,
     WeighInModel,
     SpecimenModel,
+    BurnSessionModel,
+    BurnPairModel,
+    MarkModel,
+    MeasurementModel,
+    PhotoModel,
   ]) {
     model.initModel(sequelize);
   }
@@ -66,4 +81,10 @@ export function initModels(sequelize: Sequelize): void {
   BatchModel.hasMany(WeighInModel, { foreignKey: 'batchId', as: 'weighIns' });
   BatchModel.hasMany(SpecimenModel, { foreignKey: 'batchId', as: 'specimens' });
   WeighInModel.belongsTo(ChemicalModel, { foreignKey: 'chemicalId', as: 'chemical' });
+  SpecimenModel.belongsTo(BatchModel, { foreignKey: 'batchId', as: 'batch' });
+  BurnSessionModel.hasMany(BurnPairModel, { foreignKey: 'sessionId', as: 'pairs' });
+  BurnSessionModel.belongsTo(UserModel, { foreignKey: 'operatorId', as: 'operator' });
+  BurnPairModel.belongsTo(BurnSessionModel, { foreignKey: 'sessionId', as: 'session' });
+  BurnPairModel.belongsTo(SpecimenModel, { foreignKey: 'controlSpecimenId', as: 'control' });
+  BurnPairModel.belongsTo(SpecimenModel, { foreignKey: 'treatedSpecimenId', as: 'treated' });
 }

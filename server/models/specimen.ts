@@ -4,8 +4,10 @@ import {
   type CreationOptional,
   type InferAttributes,
   type InferCreationAttributes,
+  type NonAttribute,
   type Sequelize,
 } from 'sequelize';
+import type { BatchModel } from './batch';
 
 export class SpecimenModel extends Model<
   InferAttributes<SpecimenModel>,
@@ -24,8 +26,10 @@ export class SpecimenModel extends Model<
   declare wetMassG: number | null;
   declare dryMassAfterG: number | null;
   declare notes: string | null;
+  declare conditioning: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
+  declare batch?: NonAttribute<BatchModel | null>;
 
   static initModel(sequelize: Sequelize): void {
     SpecimenModel.init(
@@ -43,6 +47,7 @@ export class SpecimenModel extends Model<
         wetMassG: { type: DataTypes.DOUBLE, allowNull: true },
         dryMassAfterG: { type: DataTypes.DOUBLE, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: true },
+        conditioning: { type: DataTypes.TEXT, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -83,7 +83,8 @@ export async function planFromRequest(
   });
 }
 
-const includes = [
+// A factory: Sequelize annotates include objects in place.
+const includes = () => [
   { model: RecipeRevisionModel, as: 'revision', include: [{ model: RecipeModel, as: 'recipe' }] },
   { model: UserModel, as: 'operator' },
   { model: WeighInModel, as: 'weighIns', include: [{ model: ChemicalModel, as: 'chemical' }] },
@@ -179,7 +180,7 @@ async function loadBatch(
 ): Promise<BatchModel> {
   const row = await BatchModel.findOne({
     where: { id: batchId, labId },
-    include: includes,
+    include: includes(),
     transaction,
   });
   if (!row) throw AppError.notFound('No such batch in this lab.');
@@ -196,7 +197,7 @@ export async function listBatches(
 ): Promise<Omit<Batch, 'plan' | 'specimens'>[]> {
   const rows = await BatchModel.findAll({
     where: { labId, ...(status ? { status } : {}) },
-    include: includes.slice(0, 3),
+    include: includes().slice(0, 3),
     order: [['preparedAt', 'DESC']],
     limit: 500,
   });

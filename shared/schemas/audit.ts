@@ -14,6 +14,11 @@ export const auditActions = [
   'invitation_accepted',
   'role_changed',
   'member_removed',
+  'checklist_completed',
+  'pair_submitted',
+  'pair_signed_off',
+  'pair_returned',
+  'measurement_corrected',
 ] as const;
 export const auditActionSchema = z.enum(auditActions);
 export type AuditAction = z.infer<typeof auditActionSchema>;

@@ -22,6 +22,8 @@ export const errorCodes = [
   'already_member',
   'invalid_transition',
   'already_exists',
+  'locked',
+  'checklist_required',
 ] as const;
 
 export const errorCodeSchema = z.enum(errorCodes);

@@ -17,6 +17,7 @@ describe('migrations', () => {
       { name: '0001-labs' },
       { name: '0002-accounts' },
       { name: '0003-recipes-batches' },
+      { name: '0004-burn-tests' },
     ]);
   });
 
