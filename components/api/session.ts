@@ -12,7 +12,10 @@ import {
   type SignUpInput,
   type UpdateMeInput,
 } from '../../shared/schemas/auth';
-import { apiRequest, setCsrfToken } from './client';
+import { readLocal, writeLocal } from '../local-store';
+import { ApiError, apiRequest, setCsrfToken } from './client';
+
+const ME_KEY = 'quenchbook.me';
 
 export const sessionKeys = {
   me: ['me'] as const,
@@ -23,9 +26,21 @@ const nothing = z.unknown();
 export const meQueryOptions = queryOptions({
   queryKey: sessionKeys.me,
   queryFn: async ({ signal }): Promise<Me | null> => {
-    const { me } = await apiRequest('/api/auth/session', sessionStateSchema, { signal });
-    setCsrfToken(me?.csrfToken);
-    return me;
+    try {
+      const { me } = await apiRequest('/api/auth/session', sessionStateSchema, { signal });
+      setCsrfToken(me?.csrfToken);
+      writeLocal(ME_KEY, me);
+      return me;
+    } catch (err) {
+      // Without a connection, the lab screens still open from the last answer on this device,
+      // so a burn in progress survives a reload in the field.
+      const copy = readLocal<Me | null>(ME_KEY);
+      if (err instanceof ApiError && err.code === 'network' && copy) {
+        setCsrfToken(copy.csrfToken);
+        return copy;
+      }
+      throw err;
+    }
   },
   staleTime: 60_000,
 });
@@ -65,6 +80,7 @@ function useSignedOut() {
   const client = useQueryClient();
   return () => {
     setCsrfToken(undefined);
+    writeLocal(ME_KEY, null);
     client.clear();
     client.setQueryData(sessionKeys.me, null);
   };

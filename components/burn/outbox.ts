@@ -7,7 +7,7 @@ import {
 } from '../../shared/schemas/burn';
 import { ApiError, apiRequest } from '../api/client';
 import { newClientId } from '../client-id';
-import { readLocal, writeLocal } from './local-store';
+import { readLocal, writeLocal } from '../local-store';
 
 // Field work first lands here, on the device, then goes to the server. Every write is
 // idempotent (marks carry their own ids; a measurement is a PUT), so sending again after a
