@@ -3,6 +3,9 @@ import request from 'supertest';
 import { ChemicalModel } from '../../server/models';
 import { addSpecimen, createBatch } from '../../server/services/batches';
 import { createRecipe } from '../../server/services/recipes';
+import { putMeasurement, signOffPair, submitPair } from '../../server/services/burn-tests';
+import sharp from 'sharp';
+import { sessionWithPair, treatedSpecimen } from '../support/burn';
 import type { Role } from '../../shared/schemas/roles';
 import {
   bearer,
@@ -37,20 +40,35 @@ beforeAll(async () => {
 
 const call = (method: Route['method'], path: string) => request(t.app)[method](path);
 
-type Capability = 'read' | 'edit' | 'manage';
+/** Sends the prepared body: JSON, or multipart with a small JPEG for the photo route. */
+async function dispatch(test: request.Test, prepared: { body?: object; photo?: true }) {
+  if (!prepared.photo) return test.send(prepared.body);
+  for (const [key, value] of Object.entries(prepared.body ?? {})) test.field(key, String(value));
+  const jpeg = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } })
+    .jpeg()
+    .toBuffer();
+  return test.attach('photo', jpeg, { filename: 'p.jpg', contentType: 'image/jpeg' });
+}
+
+type Capability = 'read' | 'edit' | 'review' | 'manage';
 type Route = {
   name: string;
   method: 'get' | 'post' | 'put' | 'patch' | 'delete';
   capability: Capability;
   ok: number;
   /** Builds the path (and body) against a lab, making a fresh target where the call changes one. */
-  prepare: (lab: Lab) => Promise<{ path: string; body?: object }>;
+  prepare: (lab: Lab) => Promise<{ path: string; body?: object; photo?: true }>;
 };
 
 // Records to act on, made through the services as the lab's manager.
 async function boricId(): Promise<string> {
   const row = await ChemicalModel.findOne({ where: { labId: null, referenceKey: 'boric-acid' } });
   return row!.id;
+}
+async function submittedPair(lab: Lab): Promise<string> {
+  const { pair } = await sessionWithPair(lab.id, lab.manager.email);
+  await submitPair(lab.id, pair.id, lab.manager.userId);
+  return pair.id;
 }
 async function recipeIn(lab: Lab) {
   return createRecipe(lab.id, lab.manager.userId, {
@@ -303,6 +321,185 @@ routes.push(
     },
   },
   {
+    name: 'list burn sessions',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/burn-sessions` }),
+  },
+  {
+    name: 'open a burn session',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/burn-sessions`,
+      body: {
+        clientId: randomUUID(),
+        heldAt: new Date().toISOString(),
+        place: 'Hood',
+        draft: 'hood',
+        igniter: 'match',
+        orientation: 'vertical',
+      },
+    }),
+  },
+  {
+    name: 'read a burn session',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/burn-sessions/${(await sessionWithPair(lab.id, lab.manager.email)).session.id}`,
+    }),
+  },
+  {
+    name: 'tick the checklist',
+    method: 'patch',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/burn-sessions/${(await sessionWithPair(lab.id, lab.manager.email, { checklist: false })).session.id}`,
+      body: { checklist: { extinguisher: true } },
+    }),
+  },
+  {
+    name: 'add a pair',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => {
+      const { session } = await sessionWithPair(lab.id, lab.manager.email);
+      const treated = await treatedSpecimen(lab.id, lab.manager.userId);
+      return {
+        path: `/api/labs/${lab.id}/burn-sessions/${session.id}/pairs`,
+        body: {
+          clientId: randomUUID(),
+          treatedSpecimenId: treated.id,
+          control: {
+            clientId: randomUUID(),
+            code: `C-${randomUUID().slice(0, 6)}`,
+            substrate: 'cotton',
+            dryMassG: 4,
+          },
+        },
+      };
+    },
+  },
+  {
+    name: 'list unburned specimens',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/specimens/unburned` }),
+  },
+  {
+    name: 'read the review queue',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/review-queue` }),
+  },
+  {
+    name: 'read a burn test',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/pairs/${(await sessionWithPair(lab.id, lab.manager.email)).pair.id}`,
+    }),
+  },
+  {
+    name: 'record timer marks',
+    method: 'post',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => {
+      const { pair, treatedId } = await sessionWithPair(lab.id, lab.manager.email);
+      return {
+        path: `/api/labs/${lab.id}/pairs/${pair.id}/marks`,
+        body: {
+          marks: [{ id: randomUUID(), specimenId: treatedId, kind: 'flame_applied', atMs: 1000 }],
+        },
+      };
+    },
+  },
+  {
+    name: 'save a measurement',
+    method: 'put',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => {
+      const { pair, treatedId } = await sessionWithPair(lab.id, lab.manager.email);
+      return {
+        path: `/api/labs/${lab.id}/pairs/${pair.id}/measurements/${treatedId}`,
+        body: { charLengthMm: 40 },
+      };
+    },
+  },
+  {
+    name: 'submit a test',
+    method: 'post',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/pairs/${(await sessionWithPair(lab.id, lab.manager.email)).pair.id}/submit`,
+    }),
+  },
+  {
+    name: 'sign off a test',
+    method: 'post',
+    capability: 'review',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/pairs/${await submittedPair(lab)}/sign-off`,
+    }),
+  },
+  {
+    name: 'return a test',
+    method: 'post',
+    capability: 'review',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/pairs/${await submittedPair(lab)}/return`,
+      body: { comment: 'Measure the control' },
+    }),
+  },
+  {
+    name: 'correct a signed-off test',
+    method: 'post',
+    capability: 'review',
+    ok: 200,
+    prepare: async (lab) => {
+      const { pair, treatedId } = await sessionWithPair(lab.id, lab.manager.email);
+      await putMeasurement(lab.id, pair.id, treatedId, { charLengthMm: 40 });
+      await submitPair(lab.id, pair.id, lab.manager.userId);
+      await signOffPair(lab.id, pair.id, lab.manager.userId);
+      return {
+        path: `/api/labs/${lab.id}/pairs/${pair.id}/corrections`,
+        body: {
+          specimenId: treatedId,
+          changes: { charLengthMm: 44 },
+          reason: 'Re-measured on the scale',
+        },
+      };
+    },
+  },
+  {
+    name: 'upload a photo',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => {
+      const { pair, treatedId } = await sessionWithPair(lab.id, lab.manager.email);
+      return {
+        path: `/api/labs/${lab.id}/pairs/${pair.id}/photos`,
+        body: { clientId: randomUUID(), specimenId: treatedId, stage: 'before' },
+        photo: true,
+      };
+    },
+  },
+  {
     name: 'change lab settings',
     method: 'patch',
     capability: 'manage',
@@ -316,7 +513,10 @@ routes.push(
 
 const roles: Role[] = ['manager', 'technician', 'reviewer', 'viewer'];
 const allowed = (role: Role, capability: Capability) =>
-  capability === 'read' || role === 'manager' || (capability === 'edit' && role === 'technician');
+  capability === 'read' ||
+  role === 'manager' ||
+  (capability === 'edit' && role === 'technician') ||
+  (capability === 'review' && role === 'reviewer');
 
 const cases = routes.flatMap((route) =>
   roles.flatMap((role) =>
@@ -333,24 +533,30 @@ const cases = routes.flatMap((route) =>
 describe('lab routes by role', () => {
   it.each(cases)('$label → $expected', async ({ route, role, where, expected }) => {
     const caller = labs.own.people[role];
-    const { path, body } = await route.prepare(labs[where]);
-    const res = await request(t.app)[route.method](path).set(bearer(caller.token)).send(body);
+    const prepared = await route.prepare(labs[where]);
+    const res = await dispatch(
+      call(route.method, prepared.path).set(bearer(caller.token)),
+      prepared,
+    );
     expect(res.status).toBe(expected);
     if (expected === 403) expect(res.body.error.code).toBe('forbidden');
     if (expected === 404) expect(res.body.error.code).toBe('not_found');
   });
 
   it.each(routes)('$name without signing in → 401', async (route) => {
-    const { path, body } = await route.prepare(labs.own);
-    const res = await request(t.app)[route.method](path).send(body);
+    const prepared = await route.prepare(labs.own);
+    const res = await dispatch(call(route.method, prepared.path), prepared);
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('unauthenticated');
   });
 
   it.each(routes)('$name for a lab id that does not exist → 404', async (route) => {
-    const { path, body } = await route.prepare(labs.own);
-    const missing = path.replace(labs.own.id, '00000000-0000-4000-8000-000000000000');
-    const res = await call(route.method, missing).set(bearer(labs.own.manager.token)).send(body);
+    const prepared = await route.prepare(labs.own);
+    const missing = prepared.path.replace(labs.own.id, '00000000-0000-4000-8000-000000000000');
+    const res = await dispatch(
+      call(route.method, missing).set(bearer(labs.own.manager.token)),
+      prepared,
+    );
     expect(res.status).toBe(404);
   });
 });
