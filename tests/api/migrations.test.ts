@@ -46,9 +46,9 @@ describe('demo data', () => {
       include: [{ model: UserModel, as: 'user' }],
     });
     const [counts] = await db.sequelize.query(
-      'SELECT (SELECT count(*) FROM recipes)::int AS recipes, (SELECT count(*) FROM batches)::int AS batches',
+      'SELECT (SELECT count(*) FROM recipes)::int AS recipes, (SELECT count(*) FROM batches)::int AS batches, (SELECT count(*) FROM burn_pairs)::int AS pairs',
     );
-    expect(counts).toEqual([{ recipes: 3, batches: 3 }]);
+    expect(counts).toEqual([{ recipes: 4, batches: 6, pairs: 12 }]);
     expect(members.map((m) => [m.user!.email, m.role]).sort()).toEqual(
       demoPeople.map((p) => [p.email, p.role]).sort(),
     );
