@@ -1,6 +1,7 @@
 import { Link } from 'expo-router';
 import { View } from 'react-native';
 import { useBatchesQuery } from './api/batches';
+import { useReviewQueueQuery, useSessionsQuery } from './api/burn';
 import { BatchTimers } from './batches/batch-timers';
 import { useLab } from './lab-context';
 import { sectionByKey } from './sections';
@@ -34,6 +35,13 @@ export function TodayScreen() {
   const { lab } = useLab();
   const inUse = useBatchesQuery(lab.id, 'in_use');
   const prepared = useBatchesQuery(lab.id, 'prepared');
+  const sessions = useSessionsQuery(lab.id);
+  const queue = useReviewQueueQuery(lab.id);
+  const drafts = (sessions.data?.sessions ?? []).flatMap((s) =>
+    s.pairs
+      .filter((p) => p.status === 'draft' || p.status === 'returned')
+      .map((p) => ({ ...p, place: s.place })),
+  );
   return (
     <>
       <SectionIntro section={sectionByKey('today')} />
@@ -58,6 +66,33 @@ export function TodayScreen() {
             ))}
           </>
         ) : null}
+      </Card>
+      <Card title="Burn tests to finish" testID="today-drafts">
+        {drafts.length ? (
+          drafts.map((p) => (
+            <Link
+              key={p.id}
+              href={`/labs/${lab.id}/burn-tests/pairs/${p.id}` as never}
+              testID={`today-draft-${p.treatedCode}`}
+            >
+              <AppText variant="label">
+                {p.treatedCode} beside {p.controlCode} ·{' '}
+                {p.status === 'returned' ? 'returned: see the comment' : 'draft'}
+              </AppText>
+            </Link>
+          ))
+        ) : (
+          <AppText tone="muted">No drafts.</AppText>
+        )}
+      </Card>
+      <Card title="Waiting for review" testID="today-reviews">
+        <Link href={`/labs/${lab.id}/burn-tests/review` as never}>
+          <AppText variant="label">
+            {queue.data
+              ? `${queue.data.pairs.length} burn test${queue.data.pairs.length === 1 ? '' : 's'} waiting`
+              : '…'}
+          </AppText>
+        </Link>
       </Card>
       <ServerStatus />
     </>
