@@ -19,6 +19,7 @@ import { healthRouter, registerHealthDocs } from './routes/health';
 import { invitationsRouter, registerInvitationDocs } from './routes/invitations';
 import { labsRouter, registerLabDocs } from './routes/labs';
 import { meRouter, registerMeDocs } from './routes/me';
+import { rankingsRouter, registerRankingDocs } from './routes/rankings';
 import { recipesRouter, registerRecipeDocs } from './routes/recipes';
 import type { ServiceDeps } from './services/deps';
 import { webRouter } from './web';
@@ -84,6 +85,8 @@ export function createApp({
   registerBatchDocs(docs);
   api.use(burnTestsRouter(createDiskPhotoStore(path.join(config.dataDir, 'photos'))));
   registerBurnDocs(docs);
+  api.use(rankingsRouter());
+  registerRankingDocs(docs);
 
   const openapi = generateDocument(docs, config.version);
   api.get('/openapi.json', (_req, res) => {

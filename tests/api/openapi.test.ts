@@ -82,6 +82,10 @@ describe('GET /api/openapi.json', () => {
         'POST /api/labs/{labId}/pairs/{pairId}/photos',
         'GET /api/labs/{labId}/photos/{photoId}',
         'GET /api/labs/{labId}/photos/{photoId}/thumbnail',
+        'GET /api/labs/{labId}/rankings',
+        'GET /api/labs/{labId}/rankings.csv',
+        'GET /api/labs/{labId}/pairs.csv',
+        'GET /api/labs/{labId}/criteria-presets',
       ].sort(),
     );
   });

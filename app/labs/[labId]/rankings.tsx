@@ -1,6 +1,5 @@
-import { SectionIntro } from '@/components/section-intro';
-import { sectionByKey } from '@/components/sections';
+import { RankingsScreen } from '@/components/rankings/rankings-screen';
 
 export default function RankingsRoute() {
-  return <SectionIntro section={sectionByKey('rankings')} />;
+  return <RankingsScreen />;
 }

@@ -1,0 +1,294 @@
+import { useState } from 'react';
+import { Platform, StyleSheet, useWindowDimensions, View } from 'react-native';
+import type { TreatmentStatsOutput } from '../../shared/schemas/ranking';
+import { substrateLabels, substrates } from '../../shared/schemas/recipe';
+import { bannerMessage } from '../api/error-messages';
+import {
+  rankingQueryString,
+  usePresetsQuery,
+  useRankingQuery,
+  type RankingFilters,
+} from '../api/rankings';
+import { useLab } from '../lab-context';
+import { colors, space, WIDE_BREAKPOINT } from '../theme';
+import { Banner } from '../ui/banner';
+import { Button } from '../ui/button';
+import { Card } from '../ui/card';
+import { Choice } from '../ui/choice';
+import { AppText } from '../ui/text';
+import { formatLength, round, useUnitSystem } from '../units';
+
+const pValue = (p: number | null) => (p === null ? '–' : p < 0.001 ? '< 0.001' : round(p, 3));
+
+function Interval({ ci, units }: { ci: [number, number] | null; units: 'metric' | 'us' }) {
+  if (!ci) return <AppText variant="small">95 % CI –</AppText>;
+  return (
+    <AppText variant="small">
+      95 % CI {formatLength(ci[0], units)} to {formatLength(ci[1], units)}
+    </AppText>
+  );
+}
+
+function TreatmentCard({ t, units }: { t: TreatmentStatsOutput; units: 'metric' | 'us' }) {
+  return (
+    <Card testID={`treatment-${t.rank ?? 'unranked'}`}>
+      <AppText variant="heading">
+        {t.rank ? `${t.rank}. ` : ''}
+        {t.recipeName} (rev. {t.revisionNumber})
+      </AppText>
+      <AppText tone="muted">
+        {t.substrate} · {t.pairs} pair{t.pairs === 1 ? '' : 's'}
+      </AppText>
+      <AppText testID="treated-char">
+        Treated char {formatLength(t.treatedChar.mean, units)} (median{' '}
+        {formatLength(t.treatedChar.median, units)}, SD {formatLength(t.treatedChar.sd, units)})
+        against control {formatLength(t.controlChar.mean, units)}
+      </AppText>
+      <AppText>
+        Shorter by {formatLength(t.difference.mean, units)}
+        {t.difference.reductionPct !== null ? ` (${round(t.difference.reductionPct, 0)} %)` : ''}
+      </AppText>
+      <Interval ci={t.difference.ci95} units={units} />
+      <AppText variant="small" tone="muted">
+        Paired t p {pValue(t.difference.pairedP)} · signed-rank p {pValue(t.difference.wilcoxonP)}
+        {t.difference.wilcoxonMethod ? ` (${t.difference.wilcoxonMethod})` : ''} · effect dz{' '}
+        {round(t.difference.cohenDz ?? NaN, 2)}
+      </AppText>
+      <AppText variant="small" tone="muted">
+        Went out by itself {t.selfExtinguish.count} of {t.pairs} (
+        {round((t.selfExtinguish.rate ?? 0) * 100, 0)} %, 95 % CI{' '}
+        {round((t.selfExtinguish.lo ?? 0) * 100, 0)}–{round((t.selfExtinguish.hi ?? 0) * 100, 0)} %)
+        · afterflame median{' '}
+        {t.afterflameMedianS === null ? '–' : `${round(t.afterflameMedianS, 1)} s`} · afterglow
+        median {t.afterglowMedianS === null ? '–' : `${round(t.afterglowMedianS, 1)} s`}
+        {t.addOnMeanPct !== null ? ` · add-on ${round(t.addOnMeanPct, 1)} %` : ''}
+      </AppText>
+      {t.pairsNeeded !== null ? (
+        <AppText variant="small" tone="muted">
+          Pairs needed to show this difference at 80 % power: {t.pairsNeeded}
+        </AppText>
+      ) : null}
+      {t.verdict ? (
+        <Banner
+          tone={t.verdict.pass ? 'success' : 'error'}
+          testID="verdict"
+          message={
+            t.verdict.pass
+              ? 'Meets the chosen criteria.'
+              : `Does not meet the criteria: ${t.verdict.notEnough ?? t.verdict.failed.join(' ')}`
+          }
+        />
+      ) : null}
+    </Card>
+  );
+}
+
+function TreatmentTable({ list, units }: { list: TreatmentStatsOutput[]; units: 'metric' | 'us' }) {
+  const head = [
+    '#',
+    'Treatment',
+    'Pairs',
+    'Treated char',
+    'Control char',
+    'Shorter by (95 % CI)',
+    'p (t / rank)',
+    'Out by itself',
+    'Verdict',
+  ];
+  return (
+    <View role="table" aria-label="Ranking" style={styles.table}>
+      <View role="row" style={[styles.row, styles.head]}>
+        {head.map((h, i) => (
+          <AppText
+            key={h}
+            variant="label"
+            role="columnheader"
+            style={[styles.cell, i === 1 && styles.wide]}
+          >
+            {h}
+          </AppText>
+        ))}
+      </View>
+      {list.map((t) => (
+        <View key={t.key} role="row" style={styles.row} testID={`row-${t.rank ?? 'unranked'}`}>
+          <AppText role="cell" style={styles.cell}>
+            {t.rank ?? '–'}
+          </AppText>
+          <AppText role="cell" style={[styles.cell, styles.wide]}>
+            {t.recipeName} (rev. {t.revisionNumber}) · {t.substrate}
+          </AppText>
+          <AppText role="cell" style={styles.cell}>
+            {t.pairs}
+          </AppText>
+          <AppText role="cell" style={styles.cell}>
+            {formatLength(t.treatedChar.mean, units)} ± {formatLength(t.treatedChar.sd, units)}
+          </AppText>
+          <AppText role="cell" style={styles.cell}>
+            {formatLength(t.controlChar.mean, units)}
+          </AppText>
+          <AppText role="cell" style={styles.cell}>
+            {formatLength(t.difference.mean, units)}
+            {t.difference.ci95
+              ? ` (${formatLength(t.difference.ci95[0], units)} – ${formatLength(t.difference.ci95[1], units)})`
+              : ''}
+          </AppText>
+          <AppText role="cell" style={styles.cell}>
+            {pValue(t.difference.pairedP)} / {pValue(t.difference.wilcoxonP)}
+          </AppText>
+          <AppText role="cell" style={styles.cell}>
+            {t.selfExtinguish.count}/{t.pairs}
+          </AppText>
+          <AppText
+            role="cell"
+            style={styles.cell}
+            tone={t.verdict ? (t.verdict.pass ? 'ok' : 'danger') : 'muted'}
+          >
+            {t.verdict ? (t.verdict.pass ? 'Pass' : 'Fail') : '–'}
+          </AppText>
+        </View>
+      ))}
+    </View>
+  );
+}
+
+export function RankingsScreen() {
+  const { lab } = useLab();
+  const units = useUnitSystem();
+  const wide = useWindowDimensions().width >= WIDE_BREAKPOINT;
+  const [filters, setFilters] = useState<RankingFilters>({ sort: 'treated_char' });
+  const ranking = useRankingQuery(lab.id, filters);
+  const presets = usePresetsQuery(lab.id);
+  const r = ranking.data;
+  const download = (file: string) => {
+    if (Platform.OS === 'web')
+      window.location.assign(`/api/labs/${lab.id}/${file}?${rankingQueryString(filters)}`);
+  };
+  return (
+    <View style={{ gap: space.lg }}>
+      <AppText variant="title" accessibilityRole="header" aria-level={1} testID="section-title">
+        Rankings
+      </AppText>
+      <AppText>
+        Treatments ranked by char length, each against its own untreated controls, with the
+        uncertainty shown.
+      </AppText>
+      <Card title="Show">
+        <Choice
+          label="Sort by"
+          options={[
+            { value: 'treated_char' as const, label: 'Shortest treated char' },
+            { value: 'reduction' as const, label: 'Largest reduction' },
+          ]}
+          value={filters.sort}
+          onChange={(sort) => setFilters((f) => ({ ...f, sort }))}
+          testID="sort"
+        />
+        <Choice
+          label="Substrate"
+          options={[
+            { value: '', label: 'All substrates' },
+            ...substrates.map((s) => ({ value: s, label: substrateLabels[s] })),
+          ]}
+          value={filters.substrate ?? ''}
+          onChange={(substrate) => setFilters((f) => ({ ...f, substrate: substrate || undefined }))}
+          testID="substrate"
+        />
+        <Choice
+          label="Judge against"
+          options={[
+            { value: '', label: 'No criteria' },
+            ...(presets.data?.presets ?? []).map((p) => ({
+              value: `preset:${p.key}`,
+              label: p.name,
+            })),
+          ]}
+          value={filters.profile ?? ''}
+          onChange={(profile) => setFilters((f) => ({ ...f, profile: profile || undefined }))}
+          testID="profile"
+        />
+        <Choice
+          label="Pairs counted"
+          options={[
+            { value: 'signed', label: 'Signed off only' },
+            { value: 'all', label: 'Include waiting for review' },
+          ]}
+          value={filters.unreviewed ? 'all' : 'signed'}
+          onChange={(v) => setFilters((f) => ({ ...f, unreviewed: v === 'all' }))}
+          testID="unreviewed"
+        />
+      </Card>
+      {ranking.error ? <Banner tone="error" message={bannerMessage(ranking.error)} /> : null}
+      {r?.profile ? (
+        <Banner
+          tone="caution"
+          message={`${r.profile.name}${r.profile.source ? ` (${r.profile.source})` : ''}. ${r.profile.caution}`}
+          testID="profile-caution"
+        />
+      ) : null}
+      {r?.leaderStatement ? (
+        <Banner tone="info" message={r.leaderStatement} testID="leader-statement" />
+      ) : null}
+      {r && !r.ranked.length && !r.notEnoughPairs.length ? (
+        <AppText tone="muted">No {r.onlySignedOff ? 'signed-off ' : ''}burn tests match.</AppText>
+      ) : null}
+      {r && r.ranked.length ? (
+        wide ? (
+          <TreatmentTable list={r.ranked} units={units} />
+        ) : (
+          r.ranked.map((t) => <TreatmentCard key={t.key} t={t} units={units} />)
+        )
+      ) : null}
+      {r && r.notEnoughPairs.length ? (
+        <>
+          <AppText variant="heading">Not enough pairs to rank (fewer than 3)</AppText>
+          {r.notEnoughPairs.map((t) => (
+            <TreatmentCard key={t.key} t={t} units={units} />
+          ))}
+        </>
+      ) : null}
+      {Platform.OS === 'web' ? (
+        <View style={styles.actions}>
+          <Button
+            label="Download the ranking (CSV)"
+            tone="secondary"
+            compact
+            onPress={() => download('rankings.csv')}
+            testID="csv-ranking"
+          />
+          <Button
+            label="Download the pairs (CSV)"
+            tone="secondary"
+            compact
+            onPress={() => download('pairs.csv')}
+            testID="csv-pairs"
+          />
+        </View>
+      ) : null}
+      <Banner
+        tone="caution"
+        message="A bench test is not a certification: local fire codes and the Authority Having Jurisdiction decide what is accepted."
+      />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  table: {
+    backgroundColor: colors.surface,
+    borderWidth: 1,
+    borderColor: colors.line,
+    borderRadius: 10,
+    padding: space.md,
+  },
+  row: {
+    flexDirection: 'row',
+    gap: space.sm,
+    paddingVertical: space.sm,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.line,
+  },
+  head: { borderBottomWidth: 2, borderBottomColor: colors.ink },
+  cell: { flex: 1 },
+  wide: { flex: 2.2 },
+  actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+});

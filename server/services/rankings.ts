@@ -1,0 +1,177 @@
+import { QueryTypes } from 'sequelize';
+import { deriveLane } from '../../shared/burn/derive';
+import type { Mark } from '../../shared/burn/marks';
+import { criteriaPresets } from '../../shared/criteria/presets';
+import { rankTreatments, type PairRow } from '../../shared/ranking/rank';
+import type { RankingOutput, RankingQuery } from '../../shared/schemas/ranking';
+import { AppError } from '../errors';
+import { BurnPairModel } from '../models';
+
+type Row = {
+  pair_id: string;
+  held_at: Date;
+  recipe_id: string;
+  recipe_name: string;
+  revision_id: string;
+  revision_number: number;
+  batch_code: string;
+  t_id: string;
+  t_code: string;
+  t_substrate: string;
+  t_before: number;
+  t_after: number | null;
+  c_id: string;
+  c_code: string;
+  t_char: number | null;
+  t_mb: number | null;
+  t_ma: number | null;
+  t_drips: boolean | null;
+  c_char: number | null;
+  c_mb: number | null;
+  c_ma: number | null;
+  c_drips: boolean | null;
+  marks: {
+    id: string;
+    kind: Mark['kind'];
+    atMs: number;
+    undoes: string | null;
+    specimenId: string;
+  }[];
+};
+
+// One query for every pair the ranking needs, marks included: no query per treatment or pair.
+const SQL = `
+SELECT p.id AS pair_id, s.held_at, r.id AS recipe_id, r.name AS recipe_name,
+       rev.id AS revision_id, rev.number AS revision_number, b.code AS batch_code,
+       t.id AS t_id, t.code AS t_code, t.substrate AS t_substrate,
+       t.dry_mass_before_g AS t_before, t.dry_mass_after_g AS t_after,
+       c.id AS c_id, c.code AS c_code,
+       mt.char_length_mm AS t_char, mt.mass_before_g AS t_mb, mt.mass_after_g AS t_ma, mt.flaming_drips AS t_drips,
+       mc.char_length_mm AS c_char, mc.mass_before_g AS c_mb, mc.mass_after_g AS c_ma, mc.flaming_drips AS c_drips,
+       COALESCE((SELECT json_agg(json_build_object('id', k.id, 'kind', k.kind, 'atMs', k.at_ms,
+                                                   'undoes', k.undoes, 'specimenId', k.specimen_id))
+                 FROM marks k WHERE k.pair_id = p.id), '[]'::json) AS marks
+FROM burn_pairs p
+JOIN burn_sessions s ON s.id = p.session_id
+JOIN specimens t ON t.id = p.treated_specimen_id
+JOIN specimens c ON c.id = p.control_specimen_id
+JOIN batches b ON b.id = t.batch_id
+JOIN recipe_revisions rev ON rev.id = b.revision_id
+JOIN recipes r ON r.id = rev.recipe_id
+LEFT JOIN measurements mt ON mt.pair_id = p.id AND mt.specimen_id = t.id
+LEFT JOIN measurements mc ON mc.pair_id = p.id AND mc.specimen_id = c.id
+WHERE p.lab_id = :labId AND p.status IN (:statuses)
+  AND (CAST(:substrate AS text) IS NULL OR r.substrate = :substrate)
+  AND (CAST(:from AS date) IS NULL OR s.held_at >= CAST(:from AS date))
+  AND (CAST(:to AS date) IS NULL OR s.held_at < CAST(:to AS date) + 1)
+  AND (CAST(:igniter AS text) IS NULL OR s.igniter = :igniter)
+  AND (CAST(:exposure AS double precision) IS NULL OR s.exposure_s = :exposure)
+  AND (CAST(:orientation AS text) IS NULL OR s.orientation = :orientation)
+`;
+
+export async function fetchPairRows(labId: string, q: RankingQuery): Promise<Row[]> {
+  return BurnPairModel.sequelize!.query<Row>(SQL, {
+    type: QueryTypes.SELECT,
+    replacements: {
+      labId,
+      statuses: q.unreviewed ? ['signed_off', 'submitted'] : ['signed_off'],
+      substrate: q.substrate ?? null,
+      from: q.from ?? null,
+      to: q.to ?? null,
+      igniter: q.igniter ?? null,
+      exposure: q.exposureS ?? null,
+      orientation: q.orientation ?? null,
+    },
+  });
+}
+
+function outcome(row: Row, role: 't' | 'c') {
+  const specimenId = role === 't' ? row.t_id : row.c_id;
+  const marks: Mark[] = row.marks
+    .filter((m) => m.specimenId === specimenId)
+    .map((m) => ({
+      id: m.id,
+      kind: m.kind,
+      atMs: m.atMs,
+      ...(m.undoes ? { undoes: m.undoes } : {}),
+    }));
+  const d = deriveLane(marks);
+  const before = role === 't' ? row.t_mb : row.c_mb;
+  const after = role === 't' ? row.t_ma : row.c_ma;
+  return {
+    code: role === 't' ? row.t_code : row.c_code,
+    charLengthMm: role === 't' ? row.t_char : row.c_char,
+    afterflameS: d.afterflameMs === null ? null : d.afterflameMs / 1000,
+    afterflameComplete: d.afterflameComplete,
+    afterglowS: d.afterglowMs === null ? null : d.afterglowMs / 1000,
+    flamingDrips: role === 't' ? row.t_drips : row.c_drips,
+    massLossPct: before && after !== null ? ((before - after) / before) * 100 : null,
+    burnedToClamp: d.burnedToClamp,
+    burnTimeS: d.totalMs === null ? null : d.totalMs / 1000,
+  };
+}
+
+export function toPairRow(row: Row): PairRow {
+  const substrate = row.t_substrate.trim();
+  return {
+    pairId: row.pair_id,
+    heldAt: new Date(row.held_at).toISOString(),
+    treatmentKey: `${row.revision_id}|${substrate.toLowerCase()}`,
+    recipeId: row.recipe_id,
+    recipeName: row.recipe_name,
+    revisionId: row.revision_id,
+    revisionNumber: row.revision_number,
+    substrate,
+    batchCode: row.batch_code,
+    addOnPct: row.t_after === null ? null : ((row.t_after - row.t_before) / row.t_before) * 100,
+    treated: outcome(row, 't'),
+    control: outcome(row, 'c'),
+  };
+}
+
+/** NaN and infinities are not JSON: an undefined statistic travels as null. */
+function clean<T>(value: T): T {
+  return JSON.parse(
+    JSON.stringify(value, (_k, v: unknown) =>
+      typeof v === 'number' && !Number.isFinite(v) ? null : v,
+    ),
+  ) as T;
+}
+
+export function presetFor(key: string | undefined) {
+  if (!key) return undefined;
+  const preset = criteriaPresets.find((p) => `preset:${p.key}` === key || p.key === key);
+  if (!preset) {
+    throw new AppError(400, 'invalid_request', 'Some fields are not valid.', [
+      { path: 'profile', message: 'No such criteria profile' },
+    ]);
+  }
+  return preset;
+}
+
+export async function rankings(labId: string, q: RankingQuery): Promise<RankingOutput> {
+  const preset = presetFor(q.profile);
+  const rows = (await fetchPairRows(labId, q)).map(toPairRow);
+  const result = rankTreatments(rows, {
+    sort: q.sort,
+    ...(preset ? { profile: preset } : {}),
+    ...(q.detectMm ? { detectMm: q.detectMm } : {}),
+  });
+  return clean({
+    ...result,
+    profile: preset
+      ? {
+          key: preset.key,
+          name: preset.name,
+          source: preset.source ?? null,
+          caution: preset.caution,
+        }
+      : null,
+    pairsCounted: rows.length,
+    onlySignedOff: !q.unreviewed,
+  }) as RankingOutput;
+}
+
+export async function pairRowsForCsv(labId: string, q: RankingQuery): Promise<PairRow[]> {
+  return (await fetchPairRows(labId, q)).map(toPairRow);
+}
