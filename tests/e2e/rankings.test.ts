@@ -1,0 +1,63 @@
+import type { Browser } from 'playwright-core';
+import Papa from 'papaparse';
+import { DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
+import { ensureWebBuild } from '../../scripts/web-build';
+import { startTestServer } from '../support/app';
+import { launchBrowser, viewports } from '../support/browser';
+import { freshDatabase, type TestDatabase } from '../support/db';
+import { collectPageErrors } from '../support/page-errors';
+import { screenshot } from '../support/screenshots';
+import { signInThroughUi } from '../support/ui';
+
+jest.setTimeout(240_000);
+
+let db: TestDatabase;
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+
+beforeAll(async () => {
+  db = await freshDatabase();
+  ensureWebBuild(db.config.webDir);
+  server = await startTestServer(db);
+  await loadDemoData(server.deps);
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  await db?.drop();
+});
+
+const viewer = demoPeople.find((p) => p.role === 'viewer')!;
+
+describe.each(Object.entries(viewports))('rankings for a viewer at %s size', (name, viewport) => {
+  it('shows the treatments in rank order with intervals, judges against a preset, and the CSV parses back', async () => {
+    const context = await browser.newContext({ viewport, acceptDownloads: true });
+    const page = await context.newPage();
+    const errors = collectPageErrors(page);
+    await signInThroughUi(page, server.url, viewer.email, DEMO_PASSWORD);
+    await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
+    await page.getByTestId('nav-rankings').click();
+    await page.getByTestId('leader-statement').waitFor();
+    const first = name === 'phone' ? page.getByTestId('treatment-1') : page.getByTestId('row-1');
+    await expect(first.textContent()).resolves.toContain('Muslin drape soak');
+    await page.getByTestId('profile').getByText('NFPA 705', { exact: false }).first().click();
+    await page.getByTestId('profile-caution').waitFor();
+    await screenshot(page, `rankings-${name}`);
+
+    const download = page.waitForEvent('download');
+    await page.getByTestId('csv-ranking').click();
+    const file = await (await download).path();
+    const { readFileSync } = await import('node:fs');
+    const rows = Papa.parse<Record<string, string>>(readFileSync(file!, 'utf8'), {
+      header: true,
+      skipEmptyLines: true,
+    }).data;
+    expect(rows[0]!.recipe).toBe('Muslin drape soak');
+    // Signed-off demo drape pairs: 52, 61, 48, 57 mm → mean 54.5 (arithmetic)
+    expect(Number(rows[0]!.treated_char_mean_mm)).toBe(54.5);
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+});
