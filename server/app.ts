@@ -14,6 +14,7 @@ import { createDiskPhotoStore } from './photos/store';
 import { authRouter, registerAuthDocs } from './routes/auth';
 import { batchesRouter, registerBatchDocs } from './routes/batches';
 import { burnTestsRouter, registerBurnDocs } from './routes/burn-tests';
+import { criteriaProfilesRouter, registerCriteriaDocs } from './routes/criteria-profiles';
 import { devMailRouter } from './routes/dev-mail';
 import { healthRouter, registerHealthDocs } from './routes/health';
 import { invitationsRouter, registerInvitationDocs } from './routes/invitations';
@@ -87,6 +88,8 @@ export function createApp({
   registerBurnDocs(docs);
   api.use(rankingsRouter());
   registerRankingDocs(docs);
+  api.use(criteriaProfilesRouter());
+  registerCriteriaDocs(docs);
 
   const openapi = generateDocument(docs, config.version);
   api.get('/openapi.json', (_req, res) => {

@@ -1,5 +1,10 @@
-import { keepPreviousData, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
+import type { CriteriaProfileInput } from '../../shared/criteria/types';
+import {
+  criteriaProfileListSchema,
+  criteriaProfileOutputSchema,
+} from '../../shared/schemas/criteria';
 import { rankingSchema } from '../../shared/schemas/ranking';
 import { apiRequest } from './client';
 
@@ -58,4 +63,48 @@ export function usePresetsQuery(labId: string) {
       apiRequest(`/api/labs/${labId}/criteria-presets`, presetsSchema, { signal }),
     staleTime: Infinity,
   });
+}
+
+export const criteriaKeys = {
+  profiles: (labId: string) => ['labs', labId, 'criteria-profiles'] as const,
+};
+
+export function useCriteriaProfilesQuery(labId: string) {
+  return useQuery({
+    queryKey: criteriaKeys.profiles(labId),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/labs/${labId}/criteria-profiles`, criteriaProfileListSchema, { signal }),
+  });
+}
+
+export function useCriteriaMutations(labId: string) {
+  const client = useQueryClient();
+  const done = () => {
+    void client.invalidateQueries({ queryKey: criteriaKeys.profiles(labId) });
+    void client.invalidateQueries({ queryKey: ['labs', labId, 'rankings'] });
+  };
+  return {
+    copy: useMutation({
+      mutationFn: (presetKey: string) =>
+        apiRequest(
+          `/api/labs/${labId}/criteria-profiles/copy-preset`,
+          criteriaProfileOutputSchema,
+          { method: 'POST', body: { presetKey } },
+        ),
+      onSuccess: done,
+    }),
+    save: useMutation({
+      mutationFn: ({ id, input }: { id: string; input: CriteriaProfileInput }) =>
+        apiRequest(`/api/labs/${labId}/criteria-profiles/${id}`, criteriaProfileOutputSchema, {
+          method: 'PUT',
+          body: input,
+        }),
+      onSuccess: done,
+    }),
+    remove: useMutation({
+      mutationFn: (id: string) =>
+        apiRequest(`/api/labs/${labId}/criteria-profiles/${id}`, z.unknown(), { method: 'DELETE' }),
+      onSuccess: done,
+    }),
+  };
 }

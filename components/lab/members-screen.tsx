@@ -120,6 +120,16 @@ export function MembersScreen() {
         </Link>
       ) : null}
 
+      <Link
+        href={`/labs/${lab.id}/lab/criteria` as never}
+        testID="link-criteria"
+        style={styles.link}
+      >
+        <AppText variant="label" style={{ color: colors.primary }}>
+          Criteria profiles: the pass rules burn tests are judged against
+        </AppText>
+      </Link>
+
       <Card testID="members" gap="lg">
         <AppText variant="heading">Members</AppText>
         {members.error ? <Banner tone="error" message={bannerMessage(members.error)} /> : null}

@@ -5,6 +5,7 @@ import { substrateLabels, substrates } from '../../shared/schemas/recipe';
 import { bannerMessage } from '../api/error-messages';
 import {
   rankingQueryString,
+  useCriteriaProfilesQuery,
   usePresetsQuery,
   useRankingQuery,
   type RankingFilters,
@@ -158,6 +159,7 @@ export function RankingsScreen() {
   const [filters, setFilters] = useState<RankingFilters>({ sort: 'treated_char' });
   const ranking = useRankingQuery(lab.id, filters);
   const presets = usePresetsQuery(lab.id);
+  const own = useCriteriaProfilesQuery(lab.id);
   const r = ranking.data;
   const download = (file: string) => {
     if (Platform.OS === 'web')
@@ -197,6 +199,10 @@ export function RankingsScreen() {
           label="Judge against"
           options={[
             { value: '', label: 'No criteria' },
+            ...(own.data?.profiles ?? []).map((p) => ({
+              value: p.id,
+              label: `${p.name} (this lab)`,
+            })),
             ...(presets.data?.presets ?? []).map((p) => ({
               value: `preset:${p.key}`,
               label: p.name,

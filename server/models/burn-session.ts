@@ -33,6 +33,7 @@ export class BurnSessionModel extends Model<
   declare checklistCompletedAt: Date | null;
   declare checklistCompletedBy: string | null;
   declare notes: string | null;
+  declare criteriaProfileId: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare pairs?: NonAttribute<BurnPairModel[]>;
@@ -60,6 +61,7 @@ export class BurnSessionModel extends Model<
         checklistCompletedAt: { type: DataTypes.DATE, allowNull: true },
         checklistCompletedBy: { type: DataTypes.UUID, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: true },
+        criteriaProfileId: { type: DataTypes.UUID, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -4,6 +4,7 @@ import { BatchModel } from './batch';
 import { BurnPairModel } from './burn-pair';
 import { BurnSessionModel } from './burn-session';
 import { ChemicalModel } from './chemical';
+import { CriteriaProfileModel } from './criteria-profile';
 import { IngredientModel } from './ingredient';
 import { InvitationModel } from './invitation';
 import { LabModel } from './lab';
@@ -28,6 +29,7 @@ export {
   MeasurementModel,
   PhotoModel,
   ChemicalModel,
+  CriteriaProfileModel,
   IngredientModel,
   RecipeModel,
   RecipeRevisionModel,
@@ -62,6 +64,7 @@ export function initModels(sequelize: Sequelize): void {
     MarkModel,
     MeasurementModel,
     PhotoModel,
+    CriteriaProfileModel,
   ]) {
     model.initModel(sequelize);
   }

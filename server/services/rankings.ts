@@ -5,7 +5,8 @@ import { criteriaPresets } from '../../shared/criteria/presets';
 import { rankTreatments, type PairRow } from '../../shared/ranking/rank';
 import type { RankingOutput, RankingQuery } from '../../shared/schemas/ranking';
 import { AppError } from '../errors';
-import { BurnPairModel } from '../models';
+import { BurnPairModel, CriteriaProfileModel } from '../models';
+import type { CriteriaProfileInput } from '../../shared/criteria/types';
 
 type Row = {
   pair_id: string;
@@ -138,34 +139,52 @@ function clean<T>(value: T): T {
   ) as T;
 }
 
-export function presetFor(key: string | undefined) {
+const noProfile = () =>
+  new AppError(400, 'invalid_request', 'Some fields are not valid.', [
+    { path: 'profile', message: 'No such criteria profile' },
+  ]);
+
+const OWN_PROFILE_CAUTION =
+  'A bench test judged against these rules is not a certification: local fire codes and the Authority Having Jurisdiction decide.';
+
+/** The profile to judge against: `preset:<key>`, or the id of one of the lab's own profiles. */
+export async function profileFor(labId: string, key: string | undefined) {
   if (!key) return undefined;
-  const preset = criteriaPresets.find((p) => `preset:${p.key}` === key || p.key === key);
-  if (!preset) {
-    throw new AppError(400, 'invalid_request', 'Some fields are not valid.', [
-      { path: 'profile', message: 'No such criteria profile' },
-    ]);
+  if (key.startsWith('preset:')) {
+    const preset = criteriaPresets.find((p) => `preset:${p.key}` === key);
+    if (!preset) throw noProfile();
+    return {
+      key,
+      profile: preset as CriteriaProfileInput,
+      name: preset.name,
+      source: preset.source ?? null,
+      caution: preset.caution,
+    };
   }
-  return preset;
+  if (!/^[0-9a-f-]{36}$/i.test(key)) throw noProfile();
+  const row = await CriteriaProfileModel.findOne({ where: { id: key, labId } });
+  if (!row) throw noProfile();
+  const profile: CriteriaProfileInput = {
+    name: row.name,
+    minSpecimens: row.minSpecimens,
+    rules: row.rules,
+    ...(row.source ? { source: row.source } : {}),
+  };
+  return { key, profile, name: row.name, source: row.source, caution: OWN_PROFILE_CAUTION };
 }
 
 export async function rankings(labId: string, q: RankingQuery): Promise<RankingOutput> {
-  const preset = presetFor(q.profile);
+  const chosen = await profileFor(labId, q.profile);
   const rows = (await fetchPairRows(labId, q)).map(toPairRow);
   const result = rankTreatments(rows, {
     sort: q.sort,
-    ...(preset ? { profile: preset } : {}),
+    ...(chosen ? { profile: chosen.profile } : {}),
     ...(q.detectMm ? { detectMm: q.detectMm } : {}),
   });
   return clean({
     ...result,
-    profile: preset
-      ? {
-          key: preset.key,
-          name: preset.name,
-          source: preset.source ?? null,
-          caution: preset.caution,
-        }
+    profile: chosen
+      ? { key: chosen.key, name: chosen.name, source: chosen.source, caution: chosen.caution }
       : null,
     pairsCounted: rows.length,
     onlySignedOff: !q.unreviewed,

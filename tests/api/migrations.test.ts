@@ -5,7 +5,13 @@ import { buildApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
 
 // Every migration in server/migrations, by the name umzug stores.
-const ALL = ['0001-labs', '0002-accounts', '0003-recipes-batches', '0004-burn-tests'];
+const ALL = [
+  '0001-labs',
+  '0002-accounts',
+  '0003-recipes-batches',
+  '0004-burn-tests',
+  '0005-criteria-profiles',
+];
 
 let db: TestDatabase;
 beforeAll(async () => {

@@ -86,6 +86,11 @@ describe('GET /api/openapi.json', () => {
         'GET /api/labs/{labId}/rankings.csv',
         'GET /api/labs/{labId}/pairs.csv',
         'GET /api/labs/{labId}/criteria-presets',
+        'GET /api/labs/{labId}/criteria-profiles',
+        'POST /api/labs/{labId}/criteria-profiles',
+        'POST /api/labs/{labId}/criteria-profiles/copy-preset',
+        'PUT /api/labs/{labId}/criteria-profiles/{profileId}',
+        'DELETE /api/labs/{labId}/criteria-profiles/{profileId}',
       ].sort(),
     );
   });

@@ -3,6 +3,7 @@ import request from 'supertest';
 import { ChemicalModel } from '../../server/models';
 import { addSpecimen, createBatch } from '../../server/services/batches';
 import { createRecipe } from '../../server/services/recipes';
+import { copyPreset } from '../../server/services/criteria-profiles';
 import { putMeasurement, signOffPair, submitPair } from '../../server/services/burn-tests';
 import sharp from 'sharp';
 import { sessionWithPair, treatedSpecimen } from '../support/burn';
@@ -498,6 +499,87 @@ routes.push(
         photo: true,
       };
     },
+  },
+  {
+    name: 'list criteria profiles',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/criteria-profiles` }),
+  },
+  {
+    name: 'write a criteria profile',
+    method: 'post',
+    capability: 'manage',
+    ok: 201,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/criteria-profiles`,
+      body: {
+        name: `Rule ${randomUUID().slice(0, 8)}`,
+        minSpecimens: 1,
+        rules: [{ kind: 'no_flaming_drips', appliesTo: 'each' }],
+      },
+    }),
+  },
+  {
+    name: 'copy a preset',
+    method: 'post',
+    capability: 'manage',
+    ok: 201,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/criteria-profiles/copy-preset`,
+      body: { presetKey: 'ul94-v0' },
+    }),
+  },
+  {
+    name: 'edit a criteria profile',
+    method: 'put',
+    capability: 'manage',
+    ok: 200,
+    prepare: async (lab) => {
+      const p = await copyPreset(lab.id, 'fmvss-302');
+      return {
+        path: `/api/labs/${lab.id}/criteria-profiles/${p.id}`,
+        body: { name: `Edited ${randomUUID().slice(0, 8)}`, minSpecimens: 2, rules: p.rules },
+      };
+    },
+  },
+  {
+    name: 'delete a criteria profile',
+    method: 'delete',
+    capability: 'manage',
+    ok: 204,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/criteria-profiles/${(await copyPreset(lab.id, 'nfpa-705-field')).id}`,
+    }),
+  },
+  {
+    name: 'read the ranking',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/rankings` }),
+  },
+  {
+    name: 'download the ranking',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/rankings.csv` }),
+  },
+  {
+    name: 'download the pairs',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/pairs.csv` }),
+  },
+  {
+    name: 'list criteria presets',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => ({ path: `/api/labs/${lab.id}/criteria-presets` }),
   },
   {
     name: 'change lab settings',

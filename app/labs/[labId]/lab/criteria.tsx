@@ -1,0 +1,5 @@
+import { CriteriaScreen } from '@/components/lab/criteria-screen';
+
+export default function CriteriaRoute() {
+  return <CriteriaScreen />;
+}
