@@ -34,6 +34,13 @@ export function webBuildIsStale(webDir: string): boolean {
 export function ensureWebBuild(webDir: string, opts: { force?: boolean } = {}): 'built' | 'fresh' {
   if (!opts.force && !webBuildIsStale(webDir)) return 'fresh';
   console.log('Building the web app (a cold build takes about two minutes)…');
+  // CanvasKit's wasm goes to public/, which the export copies to the site root.
+  const skia = spawnSync('npx', ['setup-skia-web', 'public'], {
+    cwd: repoRoot,
+    stdio: 'inherit',
+    env: childEnv({}),
+  });
+  if (skia.status !== 0) throw new Error('Copying canvaskit.wasm failed; see the output above.');
   const result = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', webDir], {
     cwd: repoRoot,
     stdio: 'inherit',

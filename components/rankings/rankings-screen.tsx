@@ -18,6 +18,7 @@ import { Card } from '../ui/card';
 import { Choice } from '../ui/choice';
 import { AppText } from '../ui/text';
 import { formatLength, round, useUnitSystem } from '../units';
+import { RankingChart } from './ranking-chart';
 
 const pValue = (p: number | null) => (p === null ? '–' : p < 0.001 ? '< 0.001' : round(p, 3));
 
@@ -236,6 +237,11 @@ export function RankingsScreen() {
       ) : null}
       {r && !r.ranked.length && !r.notEnoughPairs.length ? (
         <AppText tone="muted">No {r.onlySignedOff ? 'signed-off ' : ''}burn tests match.</AppText>
+      ) : null}
+      {r && r.ranked.length ? (
+        <Card title="Treated char length by rank (bars: mean; lines: 95 % interval)">
+          <RankingChart treatments={r.ranked} />
+        </Card>
       ) : null}
       {r && r.ranked.length ? (
         wide ? (

@@ -1,5 +1,6 @@
 import type { Browser } from 'playwright-core';
 import Papa from 'papaparse';
+import sharp from 'sharp';
 import { DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
 import { ensureWebBuild } from '../../scripts/web-build';
 import { startTestServer } from '../support/app';
@@ -42,6 +43,12 @@ describe.each(Object.entries(viewports))('rankings for a viewer at %s size', (na
     await page.getByTestId('leader-statement').waitFor();
     const first = name === 'phone' ? page.getByTestId('treatment-1') : page.getByTestId('row-1');
     await expect(first.textContent()).resolves.toContain('Muslin drape soak');
+    // The chart is drawn: its pixels are not all one colour.
+    const chart = page.getByTestId('ranking-chart');
+    await chart.locator('canvas').waitFor({ timeout: 30_000 });
+    await page.waitForTimeout(500);
+    const stats = await sharp(await chart.screenshot()).stats();
+    expect(Math.max(...stats.channels.map((c) => c.stdev))).toBeGreaterThan(10);
     await page.getByTestId('profile').getByText('NFPA 705', { exact: false }).first().click();
     await page.getByTestId('profile-caution').waitFor();
     await screenshot(page, `rankings-${name}`);
@@ -58,6 +65,32 @@ describe.each(Object.entries(viewports))('rankings for a viewer at %s size', (na
     // Signed-off demo drape pairs: 52, 61, 48, 57 mm → mean 54.5 (arithmetic)
     expect(Number(rows[0]!.treated_char_mean_mm)).toBe(54.5);
     expect(errors).toEqual([]);
+    await context.close();
+  });
+});
+
+describe('CanvasKit', () => {
+  it('is loaded on the rankings screen only, never with the timer', async () => {
+    const context = await browser.newContext({ viewport: viewports.phone });
+    const page = await context.newPage();
+    const requested: string[] = [];
+    page.on('request', (r) => requested.push(r.url()));
+    await signInThroughUi(
+      page,
+      server.url,
+      demoPeople.find((p) => p.role === 'technician')!.email,
+      DEMO_PASSWORD,
+    );
+    await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
+    await page.getByTestId('nav-burn-tests').click();
+    await page.locator('[data-testid^="session-"]').first().click();
+    await page.locator('[data-testid^="timer-"]').first().click();
+    await page.getByTestId('lane-treated').waitFor();
+    await page.waitForTimeout(1000);
+    expect(requested.filter((u) => u.includes('canvaskit'))).toEqual([]);
+    await page.getByTestId('nav-rankings').click();
+    await page.getByTestId('ranking-chart').locator('canvas').waitFor({ timeout: 30_000 });
+    expect(requested.filter((u) => u.includes('canvaskit')).length).toBeGreaterThan(0);
     await context.close();
   });
 });
