@@ -12,6 +12,7 @@ import {
 import { fToC } from '../../shared/units';
 import { ApiError } from '../api/client';
 import { useCreateSessionMutation } from '../api/burn';
+import { useCriteriaProfilesQuery } from '../api/rankings';
 import { bannerMessage } from '../api/error-messages';
 import { newClientId } from '../client-id';
 import { useLab } from '../lab-context';
@@ -43,6 +44,8 @@ export function NewSessionScreen() {
   const [igniterDetail, setIgniterDetail] = useState('');
   const [exposure, setExposure] = useState('12');
   const [orientation, setOrientation] = useState<(typeof orientations)[number]>('vertical');
+  const profiles = useCriteriaProfilesQuery(lab.id);
+  const [profileId, setProfileId] = useState('');
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [banner, setBanner] = useState<string>();
   if (!can('edit'))
@@ -67,6 +70,7 @@ export function NewSessionScreen() {
         ...(igniterDetail.trim() ? { igniterDetail } : {}),
         exposureS: parseNumber(exposure) ?? 12,
         orientation,
+        ...(profileId ? { criteriaProfileId: profileId } : {}),
       });
       router.replace(`/labs/${lab.id}/burn-tests/sessions/${session.id}` as never);
     } catch (err) {
@@ -160,6 +164,20 @@ export function NewSessionScreen() {
           testID="session-orientation"
         />
       </Card>
+      {profiles.data?.profiles.length ? (
+        <Card title="Judge against (optional)">
+          <Choice
+            label="Criteria profile"
+            options={[
+              { value: '', label: 'None' },
+              ...profiles.data.profiles.map((p) => ({ value: p.id, label: p.name })),
+            ]}
+            value={profileId}
+            onChange={setProfileId}
+            testID="session-profile"
+          />
+        </Card>
+      ) : null}
       <Button
         label="Open the session"
         onPress={() => void submit()}

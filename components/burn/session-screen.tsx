@@ -36,6 +36,7 @@ function AddPair({ labId, sessionId }: { labId: string; sessionId: string }) {
   const [code, setCode] = useState('');
   const [mass, setMass] = useState('');
   const [conditioning, setConditioning] = useState('');
+  const [mode, setMode] = useState<'simultaneous' | 'sequential'>('simultaneous');
   const [ids, setIds] = useState(() => ({ pair: newClientId(), control: newClientId() }));
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [banner, setBanner] = useState<string>();
@@ -56,6 +57,7 @@ function AddPair({ labId, sessionId }: { labId: string; sessionId: string }) {
           dryMassG: parseNumber(mass) ?? 0,
           ...(conditioning.trim() ? { conditioning } : {}),
         },
+        mode,
       });
       setTreated('');
       setCode('');
@@ -112,6 +114,16 @@ function AddPair({ labId, sessionId }: { labId: string; sessionId: string }) {
         onChangeText={setConditioning}
         hint="Conditioned like the treated specimen, e.g. 24 h at 21 °C, 65 % RH."
       />
+      <Choice
+        label="How they burn"
+        options={[
+          { value: 'simultaneous' as const, label: 'Side by side, at the same moment' },
+          { value: 'sequential' as const, label: 'One after the other' },
+        ]}
+        value={mode}
+        onChange={setMode}
+        testID="pair-mode"
+      />
       <Button
         label="Add the pair"
         onPress={() => void submit()}
@@ -145,6 +157,9 @@ export function SessionScreen({ sessionId }: { sessionId: string }) {
         {s.ambientTempC !== null ? ` · ${formatTemperature(s.ambientTempC, units)}` : ''}
         {s.ambientRhPct !== null ? ` · ${round(s.ambientRhPct, 0)} % RH` : ''}
       </AppText>
+      {s.criteriaProfile ? (
+        <AppText testID="session-profile">Judged against: {s.criteriaProfile.name}</AppText>
+      ) : null}
       <BenchCaution />
       <Card title="Before the first flame" testID="checklist">
         {update.error ? <Banner tone="error" message={bannerMessage(update.error)} /> : null}

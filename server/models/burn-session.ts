@@ -8,6 +8,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 import type { BurnPairModel } from './burn-pair';
+import type { CriteriaProfileModel } from './criteria-profile';
 import type { UserModel } from './user';
 
 export class BurnSessionModel extends Model<
@@ -38,6 +39,7 @@ export class BurnSessionModel extends Model<
   declare updatedAt: CreationOptional<Date>;
   declare pairs?: NonAttribute<BurnPairModel[]>;
   declare operator?: NonAttribute<UserModel | null>;
+  declare criteriaProfile?: NonAttribute<CriteriaProfileModel | null>;
 
   static initModel(sequelize: Sequelize): void {
     BurnSessionModel.init(

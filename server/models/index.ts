@@ -87,6 +87,10 @@ export function initModels(sequelize: Sequelize): void {
   SpecimenModel.belongsTo(BatchModel, { foreignKey: 'batchId', as: 'batch' });
   BurnSessionModel.hasMany(BurnPairModel, { foreignKey: 'sessionId', as: 'pairs' });
   BurnSessionModel.belongsTo(UserModel, { foreignKey: 'operatorId', as: 'operator' });
+  BurnSessionModel.belongsTo(CriteriaProfileModel, {
+    foreignKey: 'criteriaProfileId',
+    as: 'criteriaProfile',
+  });
   BurnPairModel.belongsTo(BurnSessionModel, { foreignKey: 'sessionId', as: 'session' });
   BurnPairModel.belongsTo(SpecimenModel, { foreignKey: 'controlSpecimenId', as: 'control' });
   BurnPairModel.belongsTo(SpecimenModel, { foreignKey: 'treatedSpecimenId', as: 'treated' });

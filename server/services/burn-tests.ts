@@ -18,6 +18,7 @@ import {
   BatchModel,
   BurnPairModel,
   BurnSessionModel,
+  CriteriaProfileModel,
   MarkModel,
   MeasurementModel,
   PhotoModel,
@@ -78,6 +79,9 @@ function toSession(row: BurnSessionModel): Session {
     orientation: row.orientation as Session['orientation'],
     checklist: row.checklist,
     checklistCompletedAt: row.checklistCompletedAt?.toISOString() ?? null,
+    criteriaProfile: row.criteriaProfile
+      ? { id: row.criteriaProfile.id, name: row.criteriaProfile.name }
+      : null,
     notes: row.notes,
     pairs: [...(row.pairs ?? [])]
       .sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime())
@@ -90,6 +94,7 @@ async function loadSession(labId: string, sessionId: string): Promise<BurnSessio
     where: { id: sessionId, labId },
     include: [
       { model: UserModel, as: 'operator' },
+      { model: CriteriaProfileModel, as: 'criteriaProfile' },
       { model: BurnPairModel, as: 'pairs', include: pairIncludes() },
     ],
   });
@@ -106,6 +111,7 @@ export async function listSessions(labId: string): Promise<Session[]> {
     where: { labId },
     include: [
       { model: UserModel, as: 'operator' },
+      { model: CriteriaProfileModel, as: 'criteriaProfile' },
       { model: BurnPairModel, as: 'pairs', include: pairIncludes() },
     ],
     order: [['heldAt', 'DESC']],
@@ -123,6 +129,14 @@ export async function createSession(
   const v = createSessionSchema.parse(input);
   const existing = await BurnSessionModel.findOne({ where: { labId, clientId: v.clientId } });
   if (existing) return { session: await getSession(labId, existing.id), created: false };
+  if (
+    v.criteriaProfileId &&
+    !(await CriteriaProfileModel.count({ where: { id: v.criteriaProfileId, labId } }))
+  ) {
+    throw new AppError(400, 'invalid_request', 'Some fields are not valid.', [
+      { path: 'criteriaProfileId', message: 'No such criteria profile in this lab' },
+    ]);
+  }
   try {
     const row = await BurnSessionModel.create({
       labId,
@@ -141,6 +155,7 @@ export async function createSession(
       orientation: v.orientation,
       checklistCompletedAt: null,
       checklistCompletedBy: null,
+      criteriaProfileId: v.criteriaProfileId ?? null,
       notes: v.notes ?? null,
     });
     return { session: await getSession(labId, row.id), created: true };

@@ -65,6 +65,8 @@ export const createSessionSchema = z
       .max(600, 'At most 10 minutes')
       .default(12),
     orientation: z.enum(orientations, 'Choose the orientation'),
+    /** One of the lab's criteria profiles to judge this session's tests against. */
+    criteriaProfileId: z.uuid('Unknown criteria profile').optional(),
     notes: z.string().trim().max(4000).optional(),
   })
   .meta({ id: 'CreateBurnSession' });
@@ -269,6 +271,7 @@ export const sessionSchema = z
     orientation: z.enum(orientations),
     checklist: z.record(z.string(), z.boolean()),
     checklistCompletedAt: z.iso.datetime().nullable(),
+    criteriaProfile: z.object({ id: z.uuid(), name: z.string() }).nullable(),
     notes: z.string().nullable(),
     pairs: z.array(pairSummarySchema),
   })

@@ -298,3 +298,39 @@ describe('roles on burn-test routes', () => {
     ).toBe(404);
   });
 });
+
+describe('POST /api/labs/:labId/burn-sessions', () => {
+  it("records the criteria profile the session is judged against, and refuses another lab's profile", async () => {
+    const { lead, tech } = await lab();
+    const other = await signUpPerson(t);
+    const own = await request(t.app)
+      .post(`/api/labs/${lead.labId}/criteria-profiles/copy-preset`)
+      .set(bearer(lead.token))
+      .send({ presetKey: 'nfpa-705-field' });
+    const foreign = await request(t.app)
+      .post(`/api/labs/${other.labId}/criteria-profiles/copy-preset`)
+      .set(bearer(other.token))
+      .send({ presetKey: 'nfpa-705-field' });
+    const body = {
+      heldAt: new Date().toISOString(),
+      place: 'Yard',
+      draft: 'open_air',
+      wind: 'light breeze',
+      igniter: 'match',
+      orientation: 'vertical',
+    };
+    const ok = await request(t.app)
+      .post(`/api/labs/${lead.labId}/burn-sessions`)
+      .set(bearer(tech.token))
+      .send({ ...body, clientId: randomUUID(), criteriaProfileId: own.body.id });
+    expect(ok.status).toBe(201);
+    expect(ok.body.criteriaProfile).toEqual({ id: own.body.id, name: own.body.name });
+    expect(ok.body.exposureS).toBe(12);
+    const bad = await request(t.app)
+      .post(`/api/labs/${lead.labId}/burn-sessions`)
+      .set(bearer(tech.token))
+      .send({ ...body, clientId: randomUUID(), criteriaProfileId: foreign.body.id });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields[0].path).toBe('criteriaProfileId');
+  });
+});
