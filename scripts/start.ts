@@ -1,4 +1,4 @@
-import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
 import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople, loadDemoData } from '../fixtures/demo';
@@ -51,6 +51,7 @@ async function main(): Promise<void> {
     );
   }
   // Claimed before the slow steps, so a second start during the build is told, not raced.
+  mkdirSync(config.dataDir, { recursive: true });
   writeFileSync(pidFile, String(process.pid));
   process.on('exit', () => {
     if (existsSync(pidFile) && readFileSync(pidFile, 'utf8') === String(process.pid))

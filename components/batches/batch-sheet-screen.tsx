@@ -1,5 +1,5 @@
 import { Link } from 'expo-router';
-import { useEffect, type ComponentProps, type ReactNode } from 'react';
+import type { ComponentProps, ReactNode } from 'react';
 import { Platform, ScrollView, StyleSheet, View } from 'react-native';
 import type { Batch, BatchStatus } from '../../shared/schemas/batch';
 import type { UnitSystem } from '../../shared/schemas/roles';
@@ -11,7 +11,7 @@ import { useLab } from '../lab-context';
 import { colors, fonts, space } from '../theme';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
-import { printHide } from '../ui/print';
+import { printHide, printPage as print, usePrintStyle } from '../ui/print';
 import { AppText } from '../ui/text';
 import { cautionText } from './cautions';
 import { formatTemperature, formatWeighMass, formatWhen, round, useUnitSystem } from '../units';
@@ -22,11 +22,6 @@ const WHITE = '#FFFFFF';
 
 /** Empty specimen rows to fill in by hand at the bench. */
 const BLANK_SPECIMEN_ROWS = 6;
-
-const PRINT_CSS =
-  '@media print { [data-print-hide="true"] { display: none !important; } body { background: #fff; } ' +
-  // The shell scrolls inside a fixed-height view; printing must show all of it.
-  'html, body, #root, [data-print-expand="true"] { height: auto !important; overflow: visible !important; } }';
 
 const statusWords: Record<BatchStatus, string> = {
   prepared: 'Prepared',
@@ -158,20 +153,6 @@ function notFound(error: unknown): boolean {
   return (
     error instanceof ApiError && (error.code === 'not_found' || error.code === 'invalid_request')
   );
-}
-
-function usePrintStyle() {
-  useEffect(() => {
-    if (Platform.OS !== 'web' || typeof document === 'undefined') return;
-    const style = document.createElement('style');
-    style.textContent = PRINT_CSS;
-    document.head.appendChild(style);
-    return () => style.remove();
-  }, []);
-}
-
-function print() {
-  if (Platform.OS === 'web' && typeof window !== 'undefined') window.print();
 }
 
 function Sheet({ batch, labName }: { batch: Batch; labName: string }) {

@@ -261,6 +261,17 @@ export function RankingsScreen() {
       {Platform.OS === 'web' ? (
         <View style={styles.actions}>
           <Button
+            label="Printable report"
+            tone="secondary"
+            compact
+            onPress={() =>
+              window.location.assign(
+                `/labs/${lab.id}/rankings/report?${rankingQueryString(filters)}`,
+              )
+            }
+            testID="open-report"
+          />
+          <Button
             label="Download the ranking (CSV)"
             tone="secondary"
             compact

@@ -1,0 +1,5 @@
+import { ReportScreen } from '@/components/rankings/report-screen';
+
+export default function ReportRoute() {
+  return <ReportScreen />;
+}
