@@ -64,6 +64,17 @@ describe.each(Object.entries(viewports))('rankings for a viewer at %s size', (na
     expect(rows[0]!.recipe).toBe('Muslin drape soak');
     // Signed-off demo drape pairs: 52, 61, 48, 57 mm → mean 54.5 (arithmetic)
     expect(Number(rows[0]!.treated_char_mean_mm)).toBe(54.5);
+    // The printable report carries the criteria and the cautions.
+    await page.getByTestId('open-report').click();
+    await page.getByTestId('ranking-report').waitFor();
+    await page
+      .getByTestId('report-cautions')
+      .getByText(/Authority Having Jurisdiction/)
+      .waitFor();
+    await expect(page.getByTestId('report-treatment-1').textContent()).resolves.toContain(
+      'Muslin drape soak',
+    );
+    await screenshot(page, `ranking-report-${name}`);
     expect(errors).toEqual([]);
     await context.close();
   });
