@@ -1,10 +1,15 @@
 import { benchHealthDuringSignIns } from './health-during-sign-ins';
+import { benchRanking } from './ranking';
 import { benchTimerAccuracy } from './timer-accuracy';
 
 // npm run bench: every benchmark, each printing its figures against a baseline measured in
 // the same run. Exits non-zero when a target is missed.
 async function main(): Promise<void> {
-  const results = [await benchHealthDuringSignIns(), await benchTimerAccuracy()];
+  const results = [
+    await benchHealthDuringSignIns(),
+    await benchTimerAccuracy(),
+    await benchRanking(),
+  ];
   process.exit(results.every(Boolean) ? 0 : 1);
 }
 

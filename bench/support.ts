@@ -68,7 +68,7 @@ const agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
 /** One request; resolves with its status and the time it took in milliseconds. */
 export function timedRequest(
   url: string,
-  options: { method?: string; body?: unknown } = {},
+  options: { method?: string; body?: unknown; headers?: Record<string, string> } = {},
 ): Promise<{ status: number; ms: number }> {
   const started = performance.now();
   const payload = options.body === undefined ? undefined : JSON.stringify(options.body);
@@ -78,9 +78,15 @@ export function timedRequest(
       {
         method: options.method ?? 'GET',
         agent,
-        headers: payload
-          ? { 'Content-Type': 'application/json', 'Content-Length': Buffer.byteLength(payload) }
-          : {},
+        headers: {
+          ...options.headers,
+          ...(payload
+            ? {
+                'Content-Type': 'application/json',
+                'Content-Length': String(Buffer.byteLength(payload)),
+              }
+            : {}),
+        },
       },
       (res) => {
         res.resume();
