@@ -50,3 +50,15 @@ export function parseNumber(text: string): number | undefined {
   const n = Number(t);
   return Number.isFinite(n) ? n : Number.NaN;
 }
+
+/** Typed text in the person's units → grams: undefined when empty, NaN when not a number. */
+export function gramsFromText(text: string, system: UnitSystem): number | undefined {
+  const n = parseNumber(text);
+  return n === undefined || Number.isNaN(n) || system === 'metric' ? n : n * GRAMS_PER_OZ;
+}
+
+/** Typed text in the person's units → millimetres: undefined when empty, NaN when not a number. */
+export function millimetresFromText(text: string, system: UnitSystem): number | undefined {
+  const n = parseNumber(text);
+  return n === undefined || Number.isNaN(n) || system === 'metric' ? n : n * 25.4;
+}

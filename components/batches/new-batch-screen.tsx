@@ -24,7 +24,7 @@ import { Card } from '../ui/card';
 import { Choice } from '../ui/choice';
 import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
-import { parseNumber, round, useUnitSystem } from '../units';
+import { gramsFromText, parseNumber, round, useUnitSystem } from '../units';
 import { Cautions } from './cautions';
 import { PlanView } from './plan-view';
 
@@ -81,10 +81,7 @@ export function NewBatchScreen({ recipeId: initialRecipe }: { recipeId?: string 
   );
   const tolerance = labInfo.data?.weighTolerancePct ?? 2;
   const weighUnit = units === 'us' ? 'oz' : 'g';
-  const toG = (text: string) => {
-    const n = parseNumber(text);
-    return n === undefined ? undefined : units === 'us' ? n * GRAMS_PER_OZ : n;
-  };
+  const toG = (text: string) => gramsFromText(text, units);
   const used = (chemicals.data?.chemicals ?? []).filter((c) =>
     recipe?.current.ingredients.some((i) => i.chemicalId === c.id),
   );

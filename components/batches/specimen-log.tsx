@@ -1,7 +1,6 @@
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { Batch } from '../../shared/schemas/batch';
-import { GRAMS_PER_OZ } from '../../shared/units';
 import { ApiError } from '../api/client';
 import { useAddSpecimenMutation, useUpdateSpecimenMutation } from '../api/batches';
 import { bannerMessage } from '../api/error-messages';
@@ -11,7 +10,14 @@ import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
 import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
-import { formatLength, formatMass, parseNumber, round, useUnitSystem } from '../units';
+import {
+  formatLength,
+  formatMass,
+  gramsFromText,
+  millimetresFromText,
+  round,
+  useUnitSystem,
+} from '../units';
 
 const empty = { code: '', lengthMm: '', widthMm: '', dryBefore: '', wet: '', dryAfter: '' };
 
@@ -36,14 +42,8 @@ export function SpecimenLog({
   const [banner, setBanner] = useState<string>();
   const [later, setLater] = useState<Record<string, string>>({});
   const massUnit = units === 'us' ? 'oz' : 'g';
-  const toG = (t: string) => {
-    const n = parseNumber(t);
-    return n === undefined || Number.isNaN(n) ? n : units === 'us' ? n * GRAMS_PER_OZ : n;
-  };
-  const toMm = (t: string) => {
-    const n = parseNumber(t);
-    return n === undefined || Number.isNaN(n) ? n : units === 'us' ? n * 25.4 : n;
-  };
+  const toG = (t: string) => gramsFromText(t, units);
+  const toMm = (t: string) => millimetresFromText(t, units);
   const set = (key: keyof typeof empty) => (value: string) =>
     setForm((f) => ({ ...f, [key]: value }));
 

@@ -2,7 +2,12 @@ import { useQueryClient } from '@tanstack/react-query';
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
-import { statusLabels, type Lane, type MeasurementInput } from '../../shared/schemas/burn';
+import {
+  measurementInputSchema,
+  statusLabels,
+  type Lane,
+  type MeasurementInput,
+} from '../../shared/schemas/burn';
 import { GRAMS_PER_OZ } from '../../shared/units';
 import {
   burnKeys,
@@ -20,7 +25,15 @@ import { Button } from '../ui/button';
 import { Card } from '../ui/card';
 import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
-import { formatLength, formatMass, formatWhen, parseNumber, round, useUnitSystem } from '../units';
+import {
+  formatLength,
+  formatMass,
+  formatWhen,
+  gramsFromText,
+  millimetresFromText,
+  round,
+  useUnitSystem,
+} from '../units';
 import { BenchCaution } from './bench-caution';
 import { formatSeconds } from './clock';
 import { pendingMeasurement, queueMeasurement, useOutbox } from './outbox';
@@ -61,14 +74,9 @@ function MeasureForm({
     drips: m?.flamingDrips ?? false,
     notes: m?.notes ?? '',
   });
-  const toMm = (t: string) => {
-    const n = parseNumber(t);
-    return n === undefined || Number.isNaN(n) ? undefined : units === 'us' ? n * 25.4 : n;
-  };
-  const toG = (t: string) => {
-    const n = parseNumber(t);
-    return n === undefined || Number.isNaN(n) ? undefined : units === 'us' ? n * GRAMS_PER_OZ : n;
-  };
+  const toMm = (t: string) => millimetresFromText(t, units);
+  const toG = (t: string) => gramsFromText(t, units);
+  const [problem, setProblem] = useState<string>();
   const set = (key: keyof Fields) => (value: string) => setF((x) => ({ ...x, [key]: value }));
   const len = units === 'us' ? 'in' : 'mm';
   const mass = units === 'us' ? 'oz' : 'g';
@@ -111,20 +119,29 @@ function MeasureForm({
         <AppText>Flaming drips fell</AppText>
       </Pressable>
       <TextField label="Notes" value={f.notes} onChangeText={set('notes')} multiline />
+      {problem ? <Banner tone="error" message={problem} testID={`${testPrefix}-problem`} /> : null}
       <Button
         label={busyLabel}
         compact
         testID={`${testPrefix}-save`}
-        onPress={() =>
-          onSave({
+        onPress={() => {
+          const values = {
             ...(toMm(f.charLength) !== undefined ? { charLengthMm: toMm(f.charLength)! } : {}),
             ...(toMm(f.charWidth) !== undefined ? { charWidthMm: toMm(f.charWidth)! } : {}),
             ...(toG(f.massBefore) !== undefined ? { massBeforeG: toG(f.massBefore)! } : {}),
             ...(toG(f.massAfter) !== undefined ? { massAfterG: toG(f.massAfter)! } : {}),
             flamingDrips: f.drips,
             ...(f.notes.trim() ? { notes: f.notes.trim() } : {}),
-          })
-        }
+          };
+          // Checked here with the server's schema: a queued write the server would refuse is lost work.
+          const checked = measurementInputSchema.safeParse(values);
+          if (!checked.success) {
+            setProblem(checked.error.issues.map((i) => i.message).join(' '));
+            return;
+          }
+          setProblem(undefined);
+          onSave(checked.data);
+        }}
       />
     </View>
   );
