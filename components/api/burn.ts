@@ -1,5 +1,4 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { z } from 'zod';
 import {
   pairSchema,
   reviewQueueSchema,
@@ -9,6 +8,7 @@ import {
   type CreateSessionInput,
   type MeasurementInput,
   type Pair,
+  unburnedSchema,
 } from '../../shared/schemas/burn';
 import { apiRequest } from './client';
 
@@ -19,22 +19,6 @@ export const burnKeys = {
   unburned: (labId: string) => ['labs', labId, 'unburned'] as const,
   queue: (labId: string) => ['labs', labId, 'review-queue'] as const,
 };
-
-const unburnedSchema = z.object({
-  specimens: z.array(
-    z.object({
-      id: z.uuid(),
-      code: z.string(),
-      substrate: z.string(),
-      addOnPct: z.number().nullable(),
-      lengthMm: z.number().nullable(),
-      widthMm: z.number().nullable(),
-      dryMassBeforeG: z.number(),
-      batchCode: z.string(),
-      recipeName: z.string(),
-    }),
-  ),
-});
 
 export function useSessionsQuery(labId: string) {
   return useQuery({

@@ -16,6 +16,7 @@ import {
   sessionListSchema,
   sessionParamsSchema,
   sessionSchema,
+  unburnedSchema,
   updateSessionSchema,
 } from '../../shared/schemas/burn';
 import { labParamsSchema } from '../../shared/schemas/lab';
@@ -46,24 +47,6 @@ import { addPhoto, readPhoto } from '../services/photos';
 export const PHOTO_MAX_BYTES = 15 * 1024 * 1024;
 
 const photoRead = z.object({ labId: z.uuid(), photoId: z.uuid('Unknown photo') });
-const unburnedSchema = z
-  .object({
-    specimens: z.array(
-      z.object({
-        id: z.uuid(),
-        code: z.string(),
-        substrate: z.string(),
-        addOnPct: z.number().nullable(),
-        lengthMm: z.number().nullable(),
-        widthMm: z.number().nullable(),
-        dryMassBeforeG: z.number(),
-        batchCode: z.string(),
-        recipeName: z.string(),
-      }),
-    ),
-  })
-  .meta({ id: 'UnburnedSpecimens' });
-export { unburnedSchema };
 
 export function burnTestsRouter(store: PhotoStore): Router {
   const router = Router();

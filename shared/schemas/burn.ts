@@ -311,3 +311,21 @@ export const reviewQueueSchema = z
     ),
   })
   .meta({ id: 'ReviewQueue' });
+
+export const unburnedSchema = z
+  .object({
+    specimens: z.array(
+      z.object({
+        id: z.uuid(),
+        code: z.string(),
+        substrate: z.string(),
+        addOnPct: z.number().nullable(),
+        lengthMm: z.number().nullable(),
+        widthMm: z.number().nullable(),
+        dryMassBeforeG: z.number(),
+        batchCode: z.string(),
+        recipeName: z.string(),
+      }),
+    ),
+  })
+  .meta({ id: 'UnburnedSpecimens' });
