@@ -1,7 +1,14 @@
 import { useState } from 'react';
 import { Platform, StyleSheet, useWindowDimensions, View } from 'react-native';
 import type { TreatmentStatsOutput } from '../../shared/schemas/ranking';
+import {
+  igniterLabels,
+  igniters,
+  orientationLabels,
+  orientations,
+} from '../../shared/schemas/burn';
 import { substrateLabels, substrates } from '../../shared/schemas/recipe';
+import { ApiError } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
 import {
   rankingQueryString,
@@ -16,6 +23,7 @@ import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
 import { Card } from '../ui/card';
 import { Choice } from '../ui/choice';
+import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
 import { formatLength, round, useUnitSystem } from '../units';
 import { RankingChart } from './ranking-chart';
@@ -158,6 +166,17 @@ export function RankingsScreen() {
   const units = useUnitSystem();
   const wide = useWindowDimensions().width >= WIDE_BREAKPOINT;
   const [filters, setFilters] = useState<RankingFilters>({ sort: 'treated_char' });
+  // Typed filters apply when the field is left, not on every key stroke.
+  const [from, setFrom] = useState('');
+  const [to, setTo] = useState('');
+  const [exposure, setExposure] = useState('');
+  const applyDates = () =>
+    setFilters((f) => ({
+      ...f,
+      from: from.trim() || undefined,
+      to: to.trim() || undefined,
+      exposureS: exposure.trim() || undefined,
+    }));
   const ranking = useRankingQuery(lab.id, filters);
   const presets = usePresetsQuery(lab.id);
   const own = useCriteriaProfilesQuery(lab.id);
@@ -214,6 +233,58 @@ export function RankingsScreen() {
           testID="profile"
         />
         <Choice
+          label="Igniter"
+          options={[
+            { value: '', label: 'Any igniter' },
+            ...igniters.map((i) => ({ value: i, label: igniterLabels[i] })),
+          ]}
+          value={filters.igniter ?? ''}
+          onChange={(igniter) => setFilters((f) => ({ ...f, igniter: igniter || undefined }))}
+          testID="igniter"
+        />
+        <Choice
+          label="Orientation"
+          options={[
+            { value: '', label: 'Any orientation' },
+            ...orientations.map((o) => ({ value: o, label: orientationLabels[o] })),
+          ]}
+          value={filters.orientation ?? ''}
+          onChange={(orientation) =>
+            setFilters((f) => ({ ...f, orientation: orientation || undefined }))
+          }
+          testID="orientation"
+        />
+        <View style={styles.dates}>
+          <View style={{ flex: 1 }}>
+            <TextField
+              label="From (YYYY-MM-DD)"
+              value={from}
+              onChangeText={setFrom}
+              onBlur={applyDates}
+              testID="from"
+            />
+          </View>
+          <View style={{ flex: 1 }}>
+            <TextField
+              label="To (YYYY-MM-DD)"
+              value={to}
+              onChangeText={setTo}
+              onBlur={applyDates}
+              testID="to"
+            />
+          </View>
+          <View style={{ flex: 1 }}>
+            <TextField
+              label="Exposure (s)"
+              value={exposure}
+              onChangeText={setExposure}
+              onBlur={applyDates}
+              inputMode="decimal"
+              testID="exposure"
+            />
+          </View>
+        </View>
+        <Choice
           label="Pairs counted"
           options={[
             { value: 'signed', label: 'Signed off only' },
@@ -224,7 +295,17 @@ export function RankingsScreen() {
           testID="unreviewed"
         />
       </Card>
-      {ranking.error ? <Banner tone="error" message={bannerMessage(ranking.error)} /> : null}
+      {ranking.error ? (
+        <Banner
+          tone="error"
+          testID="ranking-error"
+          message={
+            ranking.error instanceof ApiError && ranking.error.fields.length
+              ? ranking.error.fields.map((f) => `${f.path}: ${f.message}`).join('; ')
+              : bannerMessage(ranking.error)
+          }
+        />
+      ) : null}
       {r?.profile ? (
         <Banner
           tone="caution"
@@ -314,4 +395,5 @@ const styles = StyleSheet.create({
   cell: { flex: 1 },
   wide: { flex: 2.2 },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  dates: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
 });

@@ -64,6 +64,12 @@ describe.each(Object.entries(viewports))('rankings for a viewer at %s size', (na
     expect(rows[0]!.recipe).toBe('Muslin drape soak');
     // Signed-off demo drape pairs: 52, 61, 48, 57 mm → mean 54.5 (arithmetic)
     expect(Number(rows[0]!.treated_char_mean_mm)).toBe(54.5);
+    // Filters: the demo burned with a butane lighter, so "Match" leaves nothing.
+    await page.getByTestId('igniter').getByText('Match', { exact: true }).click();
+    await page.getByText('No signed-off burn tests match.').waitFor();
+    await page.getByTestId('igniter').getByText('Any igniter').click();
+    await page.getByTestId('leader-statement').waitFor();
+
     // The printable report carries the criteria and the cautions.
     await page.getByTestId('open-report').click();
     await page.getByTestId('ranking-report').waitFor();
