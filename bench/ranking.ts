@@ -4,7 +4,7 @@ import { migrateUp } from '../server/migrate';
 import { createRuntime } from '../server/runtime';
 import { createAccount } from '../server/services/accounts';
 import { createLab } from '../server/services/labs';
-import { fetchPairRows, rankings } from '../server/services/rankings';
+import { computeRankings, fetchPairRows } from '../server/services/rankings';
 import { benchDatabase, fmt, percentile, startServerProcess, timedRequest } from './support';
 
 // Issue target: 500 treatments × 20 pairs (10,000 pairs). The ranking over the API at 10
@@ -98,10 +98,10 @@ export async function benchRanking(): Promise<boolean> {
     }
     return out;
   };
-  await time(() => rankings(lab.id, query), 3);
+  // Both uncached: the ratio is the cost of ranking itself, not of serving a stored answer.
+  await time(() => computeRankings(lab.id, query), 3);
   const sqlOnly = await time(() => fetchPairRows(lab.id, query), 20);
-  const full = await time(() => rankings(lab.id, query), 20);
-  await runtime.close();
+  const full = await time(() => computeRankings(lab.id, query), 20);
 
   const server = await startServerProcess({
     NODE_ENV: 'test',
@@ -119,7 +119,19 @@ export async function benchRanking(): Promise<boolean> {
     const { accessToken } = (await signIn.json()) as { accessToken: string };
     const url = `${server.url}/api/labs/${lab.id}/rankings`;
     const get = () => timedRequest(url, { headers: { Authorization: `Bearer ${accessToken}` } });
-    await get();
+    // A write moves the lab's data version: the next request ranks again from the database.
+    const touch = () =>
+      q.query(
+        'UPDATE recipes SET name = name WHERE id = (SELECT id FROM recipes WHERE lab_id = :labId LIMIT 1)',
+        {
+          replacements: { labId: lab.id },
+        },
+      );
+    const cold: number[] = [];
+    for (let i = 0; i < 5; i++) {
+      await touch();
+      cold.push((await get()).ms);
+    }
     const latencies: number[] = [];
     let next = 0;
     await Promise.all(
@@ -139,6 +151,9 @@ export async function benchRanking(): Promise<boolean> {
       `  API at ${CONNECTIONS} connections, ${REQUESTS} requests: p50 ${fmt(percentile(latencies, 50))}  p95 ${fmt(p95)}  (target p95 ≤ 100 ms: ${p95 <= 100 ? 'met' : 'NOT met'})`,
     );
     console.log(
+      `  first request after a write (ranks again): median ${fmt(percentile(cold, 50))} of ${cold.length}`,
+    );
+    console.log(
       `  in process: bare SQL fetch median ${fmt(percentile(sqlOnly, 50))}, whole ranking median ${fmt(percentile(full, 50))}`,
     );
     console.log(
@@ -147,6 +162,7 @@ export async function benchRanking(): Promise<boolean> {
     return p95 <= 100 && ratio <= 3;
   } finally {
     server.stop();
+    await runtime.close();
     await db.drop();
   }
 }

@@ -8,7 +8,7 @@ import { labOf, requireLab } from '../middleware/auth';
 import { validate } from '../middleware/validate';
 import type { ApiDocs } from '../openapi';
 import { documentPath } from '../openapi-paths';
-import { pairRowsForCsv, rankings } from '../services/rankings';
+import { pairRowsForCsv, rankings, rankingsJson } from '../services/rankings';
 
 const presetListSchema = z
   .object({
@@ -36,7 +36,9 @@ export function rankingsRouter(): Router {
     requireLab('read'),
     validate({ query: rankingQuerySchema }),
     async (_req, res) => {
-      res.json(await rankings(labOf(res).id, res.locals.query));
+      const { json, etag } = await rankingsJson(labOf(res).id, res.locals.query);
+      // Express answers 304 when the request's If-None-Match carries this tag.
+      res.set('ETag', etag).type('application/json').send(json);
     },
   );
   router.get('/labs/:labId/criteria-presets', requireLab('read'), (_req, res) => {
