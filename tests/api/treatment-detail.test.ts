@@ -19,7 +19,8 @@ const sleepPairs = g1.map((a, i) => ({
   treatedAfterflameS: i + 1,
 }));
 
-let owner: Person;
+type Owner = Person & { labId: string };
+let owner: Owner;
 let sleep: Awaited<ReturnType<typeof burnTreatment>>;
 
 beforeAll(async () => {
@@ -42,7 +43,7 @@ beforeAll(async () => {
 const path = (labId: string, key: string, qs = '') =>
   `/api/labs/${labId}/rankings/treatments/${encodeURIComponent(key)}${qs ? `?${qs}` : ''}`;
 
-async function detail(key: string, qs = '', who: Person = owner) {
+async function detail(key: string, qs = '', who: Owner = owner) {
   const res = await request(t.app)
     .get(path(who.labId, key, qs))
     .set(bearer(who.token));
