@@ -22,6 +22,7 @@ import { labsRouter, registerLabDocs } from './routes/labs';
 import { meRouter, registerMeDocs } from './routes/me';
 import { rankingsRouter, registerRankingDocs } from './routes/rankings';
 import { recipesRouter, registerRecipeDocs } from './routes/recipes';
+import { registerTreatmentDocs, treatmentsRouter } from './routes/treatments';
 import type { ServiceDeps } from './services/deps';
 import { webRouter } from './web';
 
@@ -88,6 +89,8 @@ export function createApp({
   registerBurnDocs(docs);
   api.use(rankingsRouter());
   registerRankingDocs(docs);
+  api.use(treatmentsRouter());
+  registerTreatmentDocs(docs);
   api.use(criteriaProfilesRouter());
   registerCriteriaDocs(docs);
 

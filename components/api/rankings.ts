@@ -6,6 +6,7 @@ import {
   criteriaProfileOutputSchema,
 } from '../../shared/schemas/criteria';
 import { rankingSchema } from '../../shared/schemas/ranking';
+import { treatmentDetailSchema } from '../../shared/schemas/treatment';
 import { apiRequest } from './client';
 
 export type RankingFilters = {
@@ -29,8 +30,36 @@ export function rankingQueryString(f: RankingFilters): string {
   return params.toString();
 }
 
+const filterKeys = [
+  'substrate',
+  'sort',
+  'profile',
+  'from',
+  'to',
+  'igniter',
+  'orientation',
+  'exposureS',
+] as const;
+
+/** The filters carried in a URL's search params (the inverse of rankingQueryString). */
+export function rankingFiltersFrom(
+  params: Record<string, string | string[] | undefined>,
+): RankingFilters {
+  const filters: RankingFilters = { sort: 'treated_char' };
+  for (const key of filterKeys) {
+    const raw = params[key];
+    const value = Array.isArray(raw) ? raw[0] : raw;
+    if (value) Object.assign(filters, { [key]: value });
+  }
+  if (filters.sort !== 'reduction') filters.sort = 'treated_char';
+  if (params.unreviewed === 'true') filters.unreviewed = true;
+  return filters;
+}
+
 export const rankingKeys = {
   ranking: (labId: string, qs: string) => ['labs', labId, 'rankings', qs] as const,
+  treatment: (labId: string, key: string, qs: string) =>
+    ['labs', labId, 'rankings', 'treatment', key, qs] as const,
   presets: (labId: string) => ['labs', labId, 'criteria-presets'] as const,
 };
 
@@ -41,6 +70,20 @@ export function useRankingQuery(labId: string, filters: RankingFilters) {
     queryFn: ({ signal }) =>
       apiRequest(`/api/labs/${labId}/rankings?${qs}`, rankingSchema, { signal }),
     placeholderData: keepPreviousData,
+  });
+}
+
+/** One treatment of the ranking with its pairs, under the same filters as the ranking. */
+export function useTreatmentQuery(labId: string, key: string, filters: RankingFilters) {
+  const qs = rankingQueryString(filters);
+  return useQuery({
+    queryKey: rankingKeys.treatment(labId, key, qs),
+    queryFn: ({ signal }) =>
+      apiRequest(
+        `/api/labs/${labId}/rankings/treatments/${encodeURIComponent(key)}?${qs}`,
+        treatmentDetailSchema,
+        { signal },
+      ),
   });
 }
 

@@ -1,3 +1,4 @@
+import { Link } from 'expo-router';
 import { useState } from 'react';
 import { Platform, StyleSheet, useWindowDimensions, View } from 'react-native';
 import type { TreatmentStatsOutput } from '../../shared/schemas/ranking';
@@ -27,6 +28,7 @@ import { TextField } from '../ui/text-field';
 import { AppText } from '../ui/text';
 import { formatLength, round, useUnitSystem } from '../units';
 import { RankingChart } from './ranking-chart';
+import { treatmentHref } from './treatment-link';
 
 const pValue = (p: number | null) => (p === null ? '–' : p < 0.001 ? '< 0.001' : round(p, 3));
 
@@ -39,7 +41,15 @@ function Interval({ ci, units }: { ci: [number, number] | null; units: 'metric' 
   );
 }
 
-function TreatmentCard({ t, units }: { t: TreatmentStatsOutput; units: 'metric' | 'us' }) {
+function TreatmentCard({
+  t,
+  units,
+  href,
+}: {
+  t: TreatmentStatsOutput;
+  units: 'metric' | 'us';
+  href: string;
+}) {
   return (
     <Card testID={`treatment-${t.rank ?? 'unranked'}`}>
       <AppText variant="heading">
@@ -89,11 +99,24 @@ function TreatmentCard({ t, units }: { t: TreatmentStatsOutput; units: 'metric' 
           }
         />
       ) : null}
+      <Link href={href as never} testID={`open-treatment-${t.rank ?? 'unranked'}`}>
+        <AppText variant="label" style={{ color: colors.primary }}>
+          Figures, charts and pairs →
+        </AppText>
+      </Link>
     </Card>
   );
 }
 
-function TreatmentTable({ list, units }: { list: TreatmentStatsOutput[]; units: 'metric' | 'us' }) {
+function TreatmentTable({
+  list,
+  units,
+  hrefOf,
+}: {
+  list: TreatmentStatsOutput[];
+  units: 'metric' | 'us';
+  hrefOf: (t: TreatmentStatsOutput) => string;
+}) {
   const head = [
     '#',
     'Treatment',
@@ -103,6 +126,7 @@ function TreatmentTable({ list, units }: { list: TreatmentStatsOutput[]; units: 
     'Shorter by (95 % CI)',
     'p (t / rank)',
     'Out by itself',
+    'Pairs for 80 % power',
     'Verdict',
   ];
   return (
@@ -124,9 +148,13 @@ function TreatmentTable({ list, units }: { list: TreatmentStatsOutput[]; units: 
           <AppText role="cell" style={styles.cell}>
             {t.rank ?? '–'}
           </AppText>
-          <AppText role="cell" style={[styles.cell, styles.wide]}>
-            {t.recipeName} (rev. {t.revisionNumber}) · {t.substrate}
-          </AppText>
+          <View role="cell" style={[styles.cell, styles.wide]}>
+            <Link href={hrefOf(t) as never} testID={`open-treatment-${t.rank ?? 'unranked'}`}>
+              <AppText style={{ color: colors.primary, textDecorationLine: 'underline' }}>
+                {t.recipeName} (rev. {t.revisionNumber}) · {t.substrate}
+              </AppText>
+            </Link>
+          </View>
           <AppText role="cell" style={styles.cell}>
             {t.pairs}
           </AppText>
@@ -147,6 +175,9 @@ function TreatmentTable({ list, units }: { list: TreatmentStatsOutput[]; units: 
           </AppText>
           <AppText role="cell" style={styles.cell}>
             {t.selfExtinguish.count}/{t.pairs}
+          </AppText>
+          <AppText role="cell" style={styles.cell}>
+            {t.pairsNeeded ?? '–'}
           </AppText>
           <AppText
             role="cell"
@@ -181,6 +212,7 @@ export function RankingsScreen() {
   const presets = usePresetsQuery(lab.id);
   const own = useCriteriaProfilesQuery(lab.id);
   const r = ranking.data;
+  const hrefOf = (t: TreatmentStatsOutput) => treatmentHref(lab.id, t.key, filters);
   const download = (file: string) => {
     if (Platform.OS === 'web')
       window.location.assign(`/api/labs/${lab.id}/${file}?${rankingQueryString(filters)}`);
@@ -326,16 +358,16 @@ export function RankingsScreen() {
       ) : null}
       {r && r.ranked.length ? (
         wide ? (
-          <TreatmentTable list={r.ranked} units={units} />
+          <TreatmentTable list={r.ranked} units={units} hrefOf={hrefOf} />
         ) : (
-          r.ranked.map((t) => <TreatmentCard key={t.key} t={t} units={units} />)
+          r.ranked.map((t) => <TreatmentCard key={t.key} t={t} units={units} href={hrefOf(t)} />)
         )
       ) : null}
       {r && r.notEnoughPairs.length ? (
         <>
           <AppText variant="heading">Not enough pairs to rank (fewer than 3)</AppText>
           {r.notEnoughPairs.map((t) => (
-            <TreatmentCard key={t.key} t={t} units={units} />
+            <TreatmentCard key={t.key} t={t} units={units} href={hrefOf(t)} />
           ))}
         </>
       ) : null}

@@ -84,6 +84,7 @@ describe('GET /api/openapi.json', () => {
         'GET /api/labs/{labId}/photos/{photoId}/thumbnail',
         'GET /api/labs/{labId}/rankings',
         'GET /api/labs/{labId}/rankings.csv',
+        'GET /api/labs/{labId}/rankings/treatments/{key}',
         'GET /api/labs/{labId}/pairs.csv',
         'GET /api/labs/{labId}/criteria-presets',
         'GET /api/labs/{labId}/criteria-profiles',

@@ -7,6 +7,7 @@ import { copyPreset } from '../../server/services/criteria-profiles';
 import { putMeasurement, signOffPair, submitPair } from '../../server/services/burn-tests';
 import sharp from 'sharp';
 import { sessionWithPair, treatedSpecimen } from '../support/burn';
+import { burnTreatment } from '../support/treatment';
 import type { Role } from '../../shared/schemas/roles';
 import {
   bearer,
@@ -559,6 +560,19 @@ routes.push(
     capability: 'read',
     ok: 200,
     prepare: async (lab) => ({ path: `/api/labs/${lab.id}/rankings` }),
+  },
+  {
+    name: 'read a treatment of the ranking',
+    method: 'get',
+    capability: 'read',
+    ok: 200,
+    prepare: async (lab) => {
+      const { key } = await burnTreatment(lab.id, lab.manager.userId, {
+        substrate: 'Muslin',
+        pairs: [{ controlMm: 300, treatedMm: 60, treatedAfterflameS: 1 }],
+      });
+      return { path: `/api/labs/${lab.id}/rankings/treatments/${encodeURIComponent(key)}` };
+    },
   },
   {
     name: 'download the ranking',
