@@ -70,11 +70,13 @@ WHERE p.lab_id = :labId AND p.status IN (:statuses)
   AND (CAST(:igniter AS text) IS NULL OR s.igniter = :igniter)
   AND (CAST(:exposure AS double precision) IS NULL OR s.exposure_s = :exposure)
   AND (CAST(:orientation AS text) IS NULL OR s.orientation = :orientation)
+  AND (CAST(:revisionId AS uuid) IS NULL OR rev.id = CAST(:revisionId AS uuid))
 `;
 
+/** Every pair the ranking counts under these filters; `revisionId` narrows to one revision. */
 export async function fetchPairRows(
   labId: string,
-  q: RankingQuery,
+  q: RankingQuery & { revisionId?: string },
   transaction?: Transaction,
 ): Promise<Row[]> {
   return BurnPairModel.sequelize!.query<Row>(SQL, {
@@ -89,6 +91,7 @@ export async function fetchPairRows(
       igniter: q.igniter ?? null,
       exposure: q.exposureS ?? null,
       orientation: q.orientation ?? null,
+      revisionId: q.revisionId ?? null,
     },
   });
 }

@@ -4,6 +4,8 @@ import type { TreatmentDetailOutput, TreatmentPairOutput } from '../../shared/sc
 import { AppError } from '../errors';
 import { fetchPairRows, rankings, toPairRow } from './rankings';
 
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
 const finite = (v: number | null) => (v !== null && Number.isFinite(v) ? v : null);
 
 function outcome(s: PairRow['treated']): TreatmentPairOutput['treated'] {
@@ -31,11 +33,17 @@ export async function treatmentDetail(
   key: string,
   q: RankingQuery,
 ): Promise<TreatmentDetailOutput> {
-  const [ranking, rows] = await Promise.all([rankings(labId, q), fetchPairRows(labId, q)]);
+  const notFound = () =>
+    AppError.notFound('No such treatment in this lab, or no pairs of it match the filters.');
+  // A key is "<revision id>|<substrate>": fetch only that revision's pairs.
+  const revisionId = key.split('|')[0] ?? '';
+  if (!UUID.test(revisionId)) throw notFound();
+  const [ranking, rows] = await Promise.all([
+    rankings(labId, q),
+    fetchPairRows(labId, { ...q, revisionId }),
+  ]);
   const treatment = [...ranking.ranked, ...ranking.notEnoughPairs].find((t) => t.key === key);
-  if (!treatment) {
-    throw AppError.notFound('No such treatment in this lab, or no pairs of it match the filters.');
-  }
+  if (!treatment) throw notFound();
   const pairs = rows
     .map(toPairRow)
     .filter((p) => p.treatmentKey === key)
