@@ -113,6 +113,10 @@ const num = (
     return n;
   });
 
+// Type only: `num` has already refused an empty or bad cell, so the pipe never runs on one.
+const required = (what: string, limits: { min: number; max: number; above?: boolean }) =>
+  num(what, limits, true).pipe(z.number());
+
 const flag = (what: string) =>
   z.string().transform((text, ctx) => {
     const v = parseYesNo(text);
@@ -145,7 +149,7 @@ const code = (what: string) =>
 
 const SECONDS_MAX = 86_400;
 const laneCells = (who: 'control' | 'treated') => ({
-  char: num(`the ${who}'s char length`, { min: 0, max: 5000 }, true),
+  char: required(`the ${who}'s char length`, { min: 0, max: 5000 }),
   afterflame: num(`The ${who}'s afterflame`, { min: 0, max: SECONDS_MAX }),
   complete: flag(`${who} afterflame complete`),
   afterglow: num(`The ${who}'s afterglow`, { min: 0, max: SECONDS_MAX }),
@@ -194,7 +198,7 @@ export const pairImportRowSchema = z
       .trim()
       .min(1, 'Give the substrate')
       .max(80, 'The substrate has at most 80 characters'),
-    exposure_s: num('The exposure', { min: 0, max: 600, above: true }, true),
+    exposure_s: required('The exposure', { min: 0, max: 600, above: true }),
     igniter: choice('igniter', igniters, igniterLabels),
     orientation: choice('orientation', orientations, orientationLabels),
     draft: choice('draft', drafts, draftLabels),
