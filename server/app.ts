@@ -20,6 +20,7 @@ import { healthRouter, registerHealthDocs } from './routes/health';
 import { invitationsRouter, registerInvitationDocs } from './routes/invitations';
 import { labsRouter, registerLabDocs } from './routes/labs';
 import { meRouter, registerMeDocs } from './routes/me';
+import { pairImportsRouter, registerPairImportDocs } from './routes/pair-imports';
 import { rankingsRouter, registerRankingDocs } from './routes/rankings';
 import { recipesRouter, registerRecipeDocs } from './routes/recipes';
 import { registerTreatmentDocs, treatmentsRouter } from './routes/treatments';
@@ -93,6 +94,8 @@ export function createApp({
   registerTreatmentDocs(docs);
   api.use(criteriaProfilesRouter());
   registerCriteriaDocs(docs);
+  api.use(pairImportsRouter());
+  registerPairImportDocs(docs);
 
   const openapi = generateDocument(docs, config.version);
   api.get('/openapi.json', (_req, res) => {

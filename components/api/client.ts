@@ -19,9 +19,13 @@ export class ApiError extends Error {
 
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
+/** A body sent as it is rather than as JSON, e.g. a CSV file. */
+export type RawBody = { contentType: string; text: string };
+
 type RequestOptions = {
   method?: Method;
   body?: unknown;
+  rawBody?: RawBody;
   signal?: AbortSignal;
   /** Non-2xx statuses whose body is still a valid answer (e.g. 503 from health). */
   acceptStatuses?: number[];
@@ -50,9 +54,11 @@ async function send(
   body: unknown,
   signal: AbortSignal | undefined,
   baseUrl: string,
+  rawBody?: RawBody,
 ) {
   const headers: Record<string, string> = { Accept: 'application/json' };
-  if (body !== undefined) headers['Content-Type'] = 'application/json';
+  if (rawBody) headers['Content-Type'] = rawBody.contentType;
+  else if (body !== undefined) headers['Content-Type'] = 'application/json';
   if (method !== 'GET' && csrfToken) headers['X-CSRF-Token'] = csrfToken;
   try {
     return await fetch(`${baseUrl}${path}`, {
@@ -60,7 +66,7 @@ async function send(
       signal,
       credentials: 'include',
       headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: rawBody ? rawBody.text : body === undefined ? undefined : JSON.stringify(body),
     });
   } catch (err) {
     if ((err as Error).name === 'AbortError') throw err;
@@ -88,12 +94,19 @@ function refreshSession(baseUrl: string): Promise<boolean> {
 export async function apiRequest<S extends z.ZodType>(
   path: string,
   schema: S,
-  { method = 'GET', body, signal, acceptStatuses = [], baseUrl = apiBaseUrl }: RequestOptions = {},
+  {
+    method = 'GET',
+    body,
+    rawBody,
+    signal,
+    acceptStatuses = [],
+    baseUrl = apiBaseUrl,
+  }: RequestOptions = {},
 ): Promise<z.infer<S>> {
-  let res = await send(path, method, body, signal, baseUrl);
+  let res = await send(path, method, body, signal, baseUrl, rawBody);
   // The short-lived access cookie may have lapsed: renew it from the refresh cookie once.
   if (res.status === 401 && !path.startsWith('/api/auth/') && (await refreshSession(baseUrl))) {
-    res = await send(path, method, body, signal, baseUrl);
+    res = await send(path, method, body, signal, baseUrl, rawBody);
   }
   const json = await readJson(res);
   if (res.ok || acceptStatuses.includes(res.status)) {

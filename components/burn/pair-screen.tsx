@@ -269,6 +269,7 @@ const actionWords: Record<string, string> = {
   pair_signed_off: 'Signed off',
   pair_returned: 'Returned',
   measurement_corrected: 'Corrected',
+  pair_imported: 'Imported from a file',
 };
 
 export function PairScreen({ pairId }: { pairId: string }) {

@@ -28,6 +28,8 @@ const actionWords: Record<AuditAction, string> = {
   pair_signed_off: 'Signed off a burn test',
   pair_returned: 'Returned a burn test',
   measurement_corrected: 'Corrected a signed-off measurement',
+  pairs_imported: 'Imported burn tests from a file',
+  pair_imported: 'Imported a burn test from a file',
 };
 
 function describe(e: AuditEvent): string {
@@ -41,6 +43,10 @@ function describe(e: AuditEvent): string {
       return `${d.email} as ${d.role}`;
     case 'sign_in_failed':
       return d.email ?? '';
+    case 'pairs_imported':
+      return `${d.fileName}: ${String(e.detail.pairs)} pairs`;
+    case 'pair_imported':
+      return `${d.fileName}, line ${String(e.detail.line)}`;
     default:
       return e.target && e.target.id !== e.actor?.id ? e.target.displayName : '';
   }

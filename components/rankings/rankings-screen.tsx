@@ -193,7 +193,7 @@ function TreatmentTable({
 }
 
 export function RankingsScreen() {
-  const { lab } = useLab();
+  const { lab, can } = useLab();
   const units = useUnitSystem();
   const wide = useWindowDimensions().width >= WIDE_BREAKPOINT;
   const [filters, setFilters] = useState<RankingFilters>({ sort: 'treated_char' });
@@ -226,6 +226,13 @@ export function RankingsScreen() {
         Treatments ranked by char length, each against its own untreated controls, with the
         uncertainty shown.
       </AppText>
+      {can('edit') ? (
+        <Link href={`/labs/${lab.id}/rankings/import` as never} testID="open-import">
+          <AppText variant="label" style={{ color: colors.primary }}>
+            Import past results from a CSV file
+          </AppText>
+        </Link>
+      ) : null}
       <Card title="Show">
         <Choice
           label="Sort by"

@@ -35,6 +35,8 @@ export class BurnSessionModel extends Model<
   declare checklistCompletedBy: string | null;
   declare notes: string | null;
   declare criteriaProfileId: CreationOptional<string | null>;
+  /** Set when the session was made from an imported pairs file. */
+  declare importId: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare pairs?: NonAttribute<BurnPairModel[]>;
@@ -64,6 +66,7 @@ export class BurnSessionModel extends Model<
         checklistCompletedBy: { type: DataTypes.UUID, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: true },
         criteriaProfileId: { type: DataTypes.UUID, allowNull: true },
+        importId: { type: DataTypes.UUID, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -11,6 +11,7 @@ import { LabModel } from './lab';
 import { MarkModel } from './mark';
 import { MeasurementModel } from './measurement';
 import { MembershipModel } from './membership';
+import { PairImportModel } from './pair-import';
 import { PasswordResetModel } from './password-reset';
 import { PhotoModel } from './photo';
 import { RecipeModel } from './recipe';
@@ -38,6 +39,7 @@ export {
   InvitationModel,
   LabModel,
   MembershipModel,
+  PairImportModel,
   PasswordResetModel,
   SessionModel,
   UserModel,
@@ -65,6 +67,7 @@ export function initModels(sequelize: Sequelize): void {
     MeasurementModel,
     PhotoModel,
     CriteriaProfileModel,
+    PairImportModel,
   ]) {
     model.initModel(sequelize);
   }

@@ -94,26 +94,39 @@ export function rankingsRouter(): Router {
     async (_req, res) => {
       const rows = await pairRowsForCsv(labOf(res).id, res.locals.query);
       const csv = Papa.unparse(
-        rows.map((r) => ({
-          pair_id: r.pairId,
-          held_at: r.heldAt,
-          recipe: r.recipeName,
-          revision: r.revisionNumber,
-          substrate: r.substrate,
-          batch: r.batchCode,
-          add_on_pct: round(r.addOnPct),
-          control_code: r.control.code,
-          control_char_mm: round(r.control.charLengthMm, 1),
-          control_afterflame_s: round(r.control.afterflameS),
-          control_afterglow_s: round(r.control.afterglowS),
-          treated_code: r.treated.code,
-          treated_char_mm: round(r.treated.charLengthMm, 1),
-          treated_afterflame_s: round(r.treated.afterflameS),
-          treated_afterflame_complete: r.treated.afterflameComplete,
-          treated_afterglow_s: round(r.treated.afterglowS),
-          treated_mass_loss_pct: round(r.treated.massLossPct),
-          treated_flaming_drips: r.treated.flamingDrips ?? '',
-        })),
+        rows.map((r) => {
+          const lane = (who: 'control' | 'treated') => {
+            const o = r[who];
+            return {
+              [`${who}_code`]: o.code,
+              [`${who}_char_mm`]: round(o.charLengthMm, 1),
+              [`${who}_afterflame_s`]: round(o.afterflameS),
+              [`${who}_afterflame_complete`]: o.afterflameComplete,
+              [`${who}_afterglow_s`]: round(o.afterglowS),
+              [`${who}_burn_time_s`]: round(o.burnTimeS),
+              [`${who}_burned_to_clamp`]: o.burnedToClamp,
+              [`${who}_flaming_drips`]: o.flamingDrips ?? '',
+            };
+          };
+          // The columns a pairs file imports by (shared/schemas/pair-import.ts).
+          return {
+            pair_id: r.pairId,
+            held_at: r.heldAt,
+            recipe: r.recipeName,
+            revision: r.revisionNumber,
+            substrate: r.substrate,
+            exposure_s: r.exposureS,
+            igniter: r.igniter,
+            orientation: r.orientation,
+            draft: r.draft,
+            mode: r.mode,
+            batch: r.batchCode,
+            add_on_pct: round(r.addOnPct),
+            ...lane('control'),
+            ...lane('treated'),
+            treated_mass_loss_pct: round(r.treated.massLossPct),
+          };
+        }),
       );
       res.type('text/csv').attachment('pairs.csv').send(csv);
     },

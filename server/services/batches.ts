@@ -35,7 +35,7 @@ function runPlan(input: Parameters<typeof planBatch>[0]): BatchPlanOutput {
   }
 }
 
-function planForRevision(
+export function planForRevision(
   revision: RecipeRevisionModel,
   target: BatchTargetInput,
   storageTempC: number,

@@ -12,7 +12,12 @@ import { VersionedCache } from './versioned-cache';
 
 type Row = {
   pair_id: string;
+  mode: string;
   held_at: Date;
+  exposure_s: number;
+  igniter: string;
+  orientation: string;
+  draft: string;
   recipe_id: string;
   recipe_name: string;
   revision_id: string;
@@ -44,7 +49,8 @@ type Row = {
 
 // One query for every pair the ranking needs, marks included: no query per treatment or pair.
 const SQL = `
-SELECT p.id AS pair_id, s.held_at, r.id AS recipe_id, r.name AS recipe_name,
+SELECT p.id AS pair_id, p.mode, s.held_at, s.exposure_s, s.igniter, s.orientation, s.draft,
+       r.id AS recipe_id, r.name AS recipe_name,
        rev.id AS revision_id, rev.number AS revision_number, b.code AS batch_code,
        t.id AS t_id, t.code AS t_code, t.substrate AS t_substrate,
        t.dry_mass_before_g AS t_before, t.dry_mass_after_g AS t_after,
@@ -270,6 +276,14 @@ export async function rankingsJson(
   return { json, etag };
 }
 
-export async function pairRowsForCsv(labId: string, q: RankingQuery): Promise<PairRow[]> {
-  return (await fetchPairRows(labId, q)).map(toPairRow);
+/** The pairs with their session's conditions: what a pairs file needs to import elsewhere. */
+export async function pairRowsForCsv(labId: string, q: RankingQuery) {
+  return (await fetchPairRows(labId, q)).map((row) => ({
+    ...toPairRow(row),
+    mode: row.mode,
+    exposureS: row.exposure_s,
+    igniter: row.igniter,
+    orientation: row.orientation,
+    draft: row.draft,
+  }));
 }

@@ -19,6 +19,8 @@ export const auditActions = [
   'pair_signed_off',
   'pair_returned',
   'measurement_corrected',
+  'pairs_imported',
+  'pair_imported',
 ] as const;
 export const auditActionSchema = z.enum(auditActions);
 export type AuditAction = z.infer<typeof auditActionSchema>;

@@ -12,6 +12,7 @@ const ALL = [
   '0004-burn-tests',
   '0005-criteria-profiles',
   '0006-lab-data-versions',
+  '0007-pair-imports',
 ];
 
 let db: TestDatabase;

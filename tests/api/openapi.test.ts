@@ -92,6 +92,9 @@ describe('GET /api/openapi.json', () => {
         'POST /api/labs/{labId}/criteria-profiles/copy-preset',
         'PUT /api/labs/{labId}/criteria-profiles/{profileId}',
         'DELETE /api/labs/{labId}/criteria-profiles/{profileId}',
+        'POST /api/labs/{labId}/pair-imports/preview',
+        'POST /api/labs/{labId}/pair-imports/{importId}/accept',
+        'DELETE /api/labs/{labId}/pair-imports/{importId}',
       ].sort(),
     );
   });

@@ -6,7 +6,9 @@ import { createRecipe } from '../../server/services/recipes';
 import { copyPreset } from '../../server/services/criteria-profiles';
 import { putMeasurement, signOffPair, submitPair } from '../../server/services/burn-tests';
 import sharp from 'sharp';
+import { previewImport } from '../../server/services/pair-imports';
 import { sessionWithPair, treatedSpecimen } from '../support/burn';
+import { pairsCsv, recipeNamed, sitting } from '../support/imports';
 import { burnTreatment } from '../support/treatment';
 import type { Role } from '../../shared/schemas/roles';
 import {
@@ -42,8 +44,12 @@ beforeAll(async () => {
 
 const call = (method: Route['method'], path: string) => request(t.app)[method](path);
 
-/** Sends the prepared body: JSON, or multipart with a small JPEG for the photo route. */
-async function dispatch(test: request.Test, prepared: { body?: object; photo?: true }) {
+/** Sends the prepared body: JSON, CSV text, or multipart with a small JPEG for the photo route. */
+async function dispatch(
+  test: request.Test,
+  prepared: { body?: object; photo?: true; csv?: string },
+) {
+  if (prepared.csv !== undefined) return test.set('Content-Type', 'text/csv').send(prepared.csv);
   if (!prepared.photo) return test.send(prepared.body);
   for (const [key, value] of Object.entries(prepared.body ?? {})) test.field(key, String(value));
   const jpeg = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } })
@@ -59,7 +65,7 @@ type Route = {
   capability: Capability;
   ok: number;
   /** Builds the path (and body) against a lab, making a fresh target where the call changes one. */
-  prepare: (lab: Lab) => Promise<{ path: string; body?: object; photo?: true }>;
+  prepare: (lab: Lab) => Promise<{ path: string; body?: object; photo?: true; csv?: string }>;
 };
 
 // Records to act on, made through the services as the lab's manager.
@@ -72,6 +78,20 @@ async function submittedPair(lab: Lab): Promise<string> {
   await submitPair(lab.id, pair.id, lab.manager.userId);
   return pair.id;
 }
+async function pendingImport(lab: Lab): Promise<string> {
+  const recipe = `Imported ${randomUUID().slice(0, 8)}`;
+  await recipeNamed(lab.id, lab.manager.userId, recipe);
+  const csv = pairsCsv([{ ...pairRow, recipe }]);
+  return (await previewImport(lab.id, lab.manager.userId, 'old.csv', csv)).importId;
+}
+const pairRow = {
+  ...sitting,
+  recipe: 'Imported soak',
+  revision: 1,
+  substrate: 'Muslin',
+  control_char_mm: 300,
+  treated_char_mm: 60,
+};
 async function recipeIn(lab: Lab) {
   return createRecipe(lab.id, lab.manager.userId, {
     name: `Recipe ${randomUUID().slice(0, 8)}`,
@@ -594,6 +614,34 @@ routes.push(
     capability: 'read',
     ok: 200,
     prepare: async (lab) => ({ path: `/api/labs/${lab.id}/criteria-presets` }),
+  },
+  {
+    name: 'preview a pairs file',
+    method: 'post',
+    capability: 'edit',
+    ok: 201,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/pair-imports/preview`,
+      csv: pairsCsv([pairRow]),
+    }),
+  },
+  {
+    name: 'accept a pairs file',
+    method: 'post',
+    capability: 'edit',
+    ok: 200,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/pair-imports/${await pendingImport(lab)}/accept`,
+    }),
+  },
+  {
+    name: 'discard a pairs file',
+    method: 'delete',
+    capability: 'edit',
+    ok: 204,
+    prepare: async (lab) => ({
+      path: `/api/labs/${lab.id}/pair-imports/${await pendingImport(lab)}`,
+    }),
   },
   {
     name: 'change lab settings',

@@ -6,11 +6,13 @@ import { ApiError, apiRequest } from '../../components/api/client';
 type Reply = { status: number; body: string; type?: string };
 let reply: Reply;
 let lastBody = '';
+let lastType = '';
 const server = http.createServer((req, res) => {
   let data = '';
   req.on('data', (c) => (data += c));
   req.on('end', () => {
     lastBody = data;
+    lastType = req.headers['content-type'] ?? '';
     res.writeHead(reply.status, { 'Content-Type': reply.type ?? 'application/json' });
     res.end(reply.body);
   });
@@ -38,6 +40,17 @@ describe('apiRequest', () => {
       apiRequest('/x', thing, { baseUrl: base, method: 'POST', body: { a: 1 } }),
     ).resolves.toEqual({ id: 7 });
     expect(lastBody).toBe('{"a":1}');
+  });
+
+  it('sends a raw body as it is, with its own content type', async () => {
+    reply = { status: 200, body: '{"id":8}' };
+    const text = 'held_at,recipe\n2025-11-03,"Drape, soak"\n';
+    await apiRequest('/x', thing, {
+      baseUrl: base,
+      method: 'POST',
+      rawBody: { contentType: 'text/csv', text },
+    });
+    expect([lastType, lastBody]).toEqual(['text/csv', text]);
   });
 
   it('turns an error body into an ApiError with its code, status and fields', async () => {

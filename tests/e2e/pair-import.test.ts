@@ -1,0 +1,96 @@
+import type { Browser } from 'playwright-core';
+import { DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
+import { RecipeModel, RecipeRevisionModel } from '../../server/models';
+import { ensureWebBuild } from '../../scripts/web-build';
+import { startTestServer } from '../support/app';
+import { launchBrowser, viewports } from '../support/browser';
+import { freshDatabase, type TestDatabase } from '../support/db';
+import { pairsCsv, sitting } from '../support/imports';
+import { collectPageErrors } from '../support/page-errors';
+import { screenshot } from '../support/screenshots';
+import { signInThroughUi } from '../support/ui';
+
+jest.setTimeout(240_000);
+
+let db: TestDatabase;
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let file: string;
+
+beforeAll(async () => {
+  db = await freshDatabase();
+  ensureWebBuild(db.config.webDir);
+  server = await startTestServer(db);
+  await loadDemoData(server.deps);
+  browser = await launchBrowser();
+  const recipe = await RecipeModel.findOne({
+    where: { name: 'Muslin drape soak' },
+    include: [{ model: RecipeRevisionModel, as: 'revisions' }],
+  });
+  const revision = Math.max(...recipe!.revisions!.map((r) => r.number));
+  // Invented past results of the demo workshop; the second row has a typo in a char length.
+  const row = (treated: string) => ({
+    ...sitting,
+    recipe: 'Muslin drape soak',
+    revision,
+    substrate: 'Muslin, unbleached',
+    control_char_mm: 300,
+    treated_char_mm: treated,
+    treated_afterflame_s: '1,1',
+    treated_afterglow_s: 5,
+  });
+  file = pairsCsv([row('58'), row('abc'), row('63')]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  await db?.drop();
+});
+
+const technician = demoPeople.find((p) => p.role === 'technician')!;
+
+describe.each(Object.entries(viewports))('importing past results at %s size', (name, viewport) => {
+  it('shows the bad row by line and column, imports the others, and opens their session', async () => {
+    const context = await browser.newContext({ viewport });
+    const page = await context.newPage();
+    const errors = collectPageErrors(page);
+    await signInThroughUi(page, server.url, technician.email, DEMO_PASSWORD);
+    await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
+    await page.getByTestId('nav-rankings').click();
+    await page.getByTestId('open-import').click();
+    await page.getByTestId('section-title').filter({ hasText: 'Import past results' }).waitFor();
+    await page
+      .getByTestId('import-review-rule')
+      .getByText(/wait for review/)
+      .waitFor();
+
+    await page.getByTestId('import-file').setInputFiles({
+      name: 'old-burns.csv',
+      mimeType: 'text/csv',
+      buffer: Buffer.from(file),
+    });
+    await page.getByTestId('import-preview').waitFor();
+    await expect(page.getByTestId('import-counts').textContent()).resolves.toBe(
+      '2 rows can be imported · 1 with errors',
+    );
+    await expect(page.getByTestId('row-errors-3').textContent()).resolves.toBe(
+      'treated_char_mm: "abc" is not a number',
+    );
+    await expect(page.getByTestId('import-row-4').textContent()).resolves.toContain('63 mm');
+    await screenshot(page, `pair-import-preview-${name}`);
+
+    await page.getByTestId('accept-import').click();
+    await page.getByTestId('import-done').waitFor();
+    await page.getByTestId('open-review-queue').waitFor();
+    await page.getByTestId('imported-session-0').click();
+    await page
+      .getByTestId('section-title')
+      .filter({ hasText: `Imported from old-burns.csv by ${technician.displayName}` })
+      .waitFor();
+    await expect(page.getByText('Waiting for review').count()).resolves.toBe(2);
+    await screenshot(page, `pair-import-session-${name}`);
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+});
