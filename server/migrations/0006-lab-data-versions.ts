@@ -38,11 +38,18 @@ CREATE FUNCTION qb_bump_lab_data_version() RETURNS trigger LANGUAGE plpgsql AS $
 DECLARE
   row_lab uuid;
   row_pair uuid;
+  done_flag text;
 BEGIN
   IF TG_OP = 'DELETE' THEN
     row_lab := OLD.lab_id;
   ELSE
     row_lab := NEW.lab_id;
+  END IF;
+  -- One move per lab per transaction is enough, and keeps a bulk import from updating the
+  -- same row tens of thousands of times at commit.
+  done_flag := 'qb.data_version_' || replace(row_lab::text, '-', '');
+  IF current_setting(done_flag, true) = 'moved' THEN
+    RETURN NULL;
   END IF;
   IF TG_TABLE_NAME IN ('marks', 'measurements') THEN
     IF TG_OP = 'DELETE' THEN row_pair := OLD.pair_id; ELSE row_pair := NEW.pair_id; END IF;
@@ -52,6 +59,7 @@ BEGIN
     END IF;
   END IF;
   UPDATE lab_data_versions SET version = version + 1 WHERE lab_id = row_lab;
+  PERFORM set_config(done_flag, 'moved', true);
   RETURN NULL;
 END $$;
 `;

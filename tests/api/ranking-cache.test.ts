@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import request from 'supertest';
 import { LabModel } from '../../server/models';
 import { rankingSchema } from '../../shared/schemas/ranking';
@@ -139,6 +139,25 @@ describe('GET /api/labs/:labId/rankings (served again until the data changes)', 
       .get(`/api/labs/${labId}/rankings?unreviewed=true`)
       .set(bearer(lead.token));
     expect(rankingSchema.parse(unreviewed.body).pairsCounted).toBe(2);
+  });
+
+  it('moves the version once per transaction, however many rows it writes', async () => {
+    const { labId } = await labWithSignedOffPair(60);
+    const before = await version(labId);
+    const touchRecipes = (transaction?: Transaction) =>
+      LabModel.sequelize!.query('UPDATE recipes SET name = name WHERE lab_id = :labId', {
+        replacements: { labId },
+        ...(transaction ? { transaction } : {}),
+      });
+    await LabModel.sequelize!.transaction(async (transaction) => {
+      await touchRecipes(transaction);
+      await touchRecipes(transaction);
+      await touchRecipes(transaction);
+    });
+    expect(await version(labId)).toBe(before + 1);
+    await touchRecipes();
+    await touchRecipes();
+    expect(await version(labId)).toBe(before + 3);
   });
 
   it('gives every lab its own version: a write in one lab leaves another lab alone', async () => {
