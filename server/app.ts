@@ -1,4 +1,3 @@
-import path from 'node:path';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
@@ -10,7 +9,8 @@ import { authenticate } from './middleware/auth';
 import { apiNotFound, errorHandler } from './middleware/error';
 import { createRegistry, generateDocument } from './openapi';
 import type { PasswordHasher } from './passwords/hasher';
-import { createDiskPhotoStore } from './photos/store';
+import { createPhotoStore } from './photos/configured-store';
+import type { PhotoStore } from './photos/store';
 import { authRouter, registerAuthDocs } from './routes/auth';
 import { batchesRouter, registerBatchDocs } from './routes/batches';
 import { burnTestsRouter, registerBurnDocs } from './routes/burn-tests';
@@ -30,6 +30,8 @@ export type AppDeps = {
   sequelize: Sequelize;
   hasher: PasswordHasher;
   mailer: Mailer;
+  /** Defaults to the store the config names; the runtime passes its own so it can close it. */
+  photoStore?: PhotoStore;
   logError?: (err: unknown) => void;
 };
 
@@ -38,6 +40,7 @@ export function createApp({
   sequelize,
   hasher,
   mailer,
+  photoStore = createPhotoStore(config.photos),
   logError = console.error,
 }: AppDeps): Express {
   const deps: ServiceDeps = { config, hasher, mailer };
@@ -84,7 +87,7 @@ export function createApp({
   registerRecipeDocs(docs);
   api.use(batchesRouter());
   registerBatchDocs(docs);
-  api.use(burnTestsRouter(createDiskPhotoStore(path.join(config.dataDir, 'photos'))));
+  api.use(burnTestsRouter(photoStore));
   registerBurnDocs(docs);
   api.use(rankingsRouter());
   registerRankingDocs(docs);

@@ -6,6 +6,7 @@ import type { Config } from '../../server/config';
 import { createMailer, type Mailer } from '../../server/mail/sender';
 import { TEST_ARGON2ID } from '../../server/passwords/cost';
 import { createPasswordHasher, type PasswordHasher } from '../../server/passwords/hasher';
+import type { PhotoStore } from '../../server/photos/store';
 import type { ServiceDeps } from '../../server/services/deps';
 import { freshDatabase, type TestDatabase } from './db';
 
@@ -32,6 +33,7 @@ export function buildApp(
     config?: Partial<Config>;
     logError?: (err: unknown) => void;
     hasher?: PasswordHasher;
+    photoStore?: PhotoStore;
   } = {},
 ): TestApp {
   const config: Config = { ...db.config, ...options.config };
@@ -42,6 +44,7 @@ export function buildApp(
     sequelize: db.sequelize,
     hasher,
     mailer,
+    photoStore: options.photoStore,
     logError: options.logError,
   });
   return {
