@@ -6,7 +6,9 @@ import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
 import type { Mailer } from './mail/sender';
 import { authenticate } from './middleware/auth';
-import { apiNotFound, errorHandler } from './middleware/error';
+import { apiNotFound, errorHandler, type ErrorContext } from './middleware/error';
+import { publicOriginOnly } from './middleware/origin';
+import { assignRequestId } from './middleware/request-id';
 import { createRegistry, generateDocument } from './openapi';
 import type { PasswordHasher } from './passwords/hasher';
 import { createPhotoStore } from './photos/configured-store';
@@ -32,7 +34,7 @@ export type AppDeps = {
   mailer: Mailer;
   /** Defaults to the store the config names; the runtime passes its own so it can close it. */
   photoStore?: PhotoStore;
-  logError?: (err: unknown) => void;
+  logError?: (err: unknown, context: ErrorContext) => void;
 };
 
 export function createApp({
@@ -47,6 +49,7 @@ export function createApp({
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(assignRequestId);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -70,6 +73,7 @@ export function createApp({
 
   const docs = createRegistry();
   const api = express.Router();
+  api.use(publicOriginOnly(config.publicUrl));
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRouter({ sequelize, version: config.version, dbTimeoutMs: config.dbTimeoutMs }));
   registerHealthDocs(docs);

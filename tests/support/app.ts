@@ -4,6 +4,7 @@ import type { Express } from 'express';
 import { createApp } from '../../server/app';
 import type { Config } from '../../server/config';
 import { createMailer, type Mailer } from '../../server/mail/sender';
+import type { ErrorContext } from '../../server/middleware/error';
 import { TEST_ARGON2ID } from '../../server/passwords/cost';
 import { createPasswordHasher, type PasswordHasher } from '../../server/passwords/hasher';
 import type { PhotoStore } from '../../server/photos/store';
@@ -31,7 +32,7 @@ export function buildApp(
   db: TestDatabase,
   options: {
     config?: Partial<Config>;
-    logError?: (err: unknown) => void;
+    logError?: (err: unknown, context: ErrorContext) => void;
     hasher?: PasswordHasher;
     photoStore?: PhotoStore;
   } = {},
