@@ -13,6 +13,7 @@ import { MeasurementModel } from './measurement';
 import { MembershipModel } from './membership';
 import { PasswordResetModel } from './password-reset';
 import { PhotoModel } from './photo';
+import { RateLimitModel } from './rate-limit';
 import { RecipeModel } from './recipe';
 import { RecipeRevisionModel } from './recipe-revision';
 import { SessionModel } from './session';
@@ -28,6 +29,7 @@ export {
   MarkModel,
   MeasurementModel,
   PhotoModel,
+  RateLimitModel,
   ChemicalModel,
   CriteriaProfileModel,
   IngredientModel,
@@ -65,6 +67,7 @@ export function initModels(sequelize: Sequelize): void {
     MeasurementModel,
     PhotoModel,
     CriteriaProfileModel,
+    RateLimitModel,
   ]) {
     model.initModel(sequelize);
   }

@@ -11,6 +11,7 @@ const ALL = [
   '0003-recipes-batches',
   '0004-burn-tests',
   '0005-criteria-profiles',
+  '0006-rate-limits',
 ];
 
 let db: TestDatabase;
