@@ -4,6 +4,7 @@ import helmet from 'helmet';
 import morgan from 'morgan';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
+import { contentSecurityPolicy } from './csp';
 import type { Mailer } from './mail/sender';
 import { authenticate } from './middleware/auth';
 import { apiNotFound, errorHandler, type ErrorContext } from './middleware/error';
@@ -53,18 +54,8 @@ export function createApp({
   app.use(
     helmet({
       contentSecurityPolicy: {
-        directives: {
-          defaultSrc: ["'self'"],
-          scriptSrc: ["'self'", "'wasm-unsafe-eval'"],
-          // react-native-web injects its styles at run time.
-          styleSrc: ["'self'", "'unsafe-inline'"],
-          imgSrc: ["'self'", 'data:', 'blob:'],
-          fontSrc: ["'self'", 'data:'],
-          connectSrc: ["'self'"],
-          objectSrc: ["'none'"],
-          frameAncestors: ["'none'"],
-          upgradeInsecureRequests: null,
-        },
+        useDefaults: false,
+        directives: contentSecurityPolicy,
       },
     }),
   );
