@@ -8,6 +8,7 @@ const SOURCES = [
   'components',
   'shared',
   'assets',
+  'index.ts',
   'app.json',
   'package.json',
   'tsconfig.json',

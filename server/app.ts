@@ -1,16 +1,19 @@
-import path from 'node:path';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import morgan from 'morgan';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
+import { contentSecurityPolicy } from './csp';
 import type { Mailer } from './mail/sender';
 import { authenticate } from './middleware/auth';
-import { apiNotFound, errorHandler } from './middleware/error';
+import { apiNotFound, errorHandler, type ErrorContext } from './middleware/error';
+import { publicOriginOnly } from './middleware/origin';
+import { assignRequestId } from './middleware/request-id';
 import { createRegistry, generateDocument } from './openapi';
 import type { PasswordHasher } from './passwords/hasher';
-import { createDiskPhotoStore } from './photos/store';
+import { createPhotoStore } from './photos/configured-store';
+import type { PhotoStore } from './photos/store';
 import { authRouter, registerAuthDocs } from './routes/auth';
 import { batchesRouter, registerBatchDocs } from './routes/batches';
 import { burnTestsRouter, registerBurnDocs } from './routes/burn-tests';
@@ -32,7 +35,9 @@ export type AppDeps = {
   sequelize: Sequelize;
   hasher: PasswordHasher;
   mailer: Mailer;
-  logError?: (err: unknown) => void;
+  /** Defaults to the store the config names; the runtime passes its own so it can close it. */
+  photoStore?: PhotoStore;
+  logError?: (err: unknown, context: ErrorContext) => void;
 };
 
 export function createApp({
@@ -40,27 +45,19 @@ export function createApp({
   sequelize,
   hasher,
   mailer,
+  photoStore = createPhotoStore(config.photos),
   logError = console.error,
 }: AppDeps): Express {
   const deps: ServiceDeps = { config, hasher, mailer };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(assignRequestId);
   app.use(
     helmet({
       contentSecurityPolicy: {
-        directives: {
-          defaultSrc: ["'self'"],
-          scriptSrc: ["'self'", "'wasm-unsafe-eval'"],
-          // react-native-web injects its styles at run time.
-          styleSrc: ["'self'", "'unsafe-inline'"],
-          imgSrc: ["'self'", 'data:', 'blob:'],
-          fontSrc: ["'self'", 'data:'],
-          connectSrc: ["'self'"],
-          objectSrc: ["'none'"],
-          frameAncestors: ["'none'"],
-          upgradeInsecureRequests: null,
-        },
+        useDefaults: false,
+        directives: contentSecurityPolicy,
       },
     }),
   );
@@ -69,6 +66,7 @@ export function createApp({
 
   const docs = createRegistry();
   const api = express.Router();
+  api.use(publicOriginOnly(config.publicUrl));
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRouter({ sequelize, version: config.version, dbTimeoutMs: config.dbTimeoutMs }));
   registerHealthDocs(docs);
@@ -86,7 +84,7 @@ export function createApp({
   registerRecipeDocs(docs);
   api.use(batchesRouter());
   registerBatchDocs(docs);
-  api.use(burnTestsRouter(createDiskPhotoStore(path.join(config.dataDir, 'photos'))));
+  api.use(burnTestsRouter(photoStore));
   registerBurnDocs(docs);
   api.use(rankingsRouter());
   registerRankingDocs(docs);

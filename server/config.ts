@@ -40,7 +40,26 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Quenchbook <no-reply@quenchbook.invalid>'),
   QB_FAKE_SMTP_PORT: portSchema.default(2526),
   QB_MAILBOX_DIR: z.string().min(1).optional(),
+  QB_S3_BUCKET: z.string().min(1).optional(),
+  QB_S3_ENDPOINT: z.url().optional(),
+  QB_S3_REGION: z.string().min(1).default('us-east-1'),
+  QB_S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  QB_S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  QB_S3_FORCE_PATH_STYLE: flagSchema.optional(),
 });
+
+export type S3Config = {
+  bucket: string;
+  /** Unset means the provider's default endpoint for the region. */
+  endpoint: string | undefined;
+  region: string;
+  accessKeyId: string;
+  secretAccessKey: string;
+  forcePathStyle: boolean;
+};
+
+/** Where photos live: a folder on this machine, or a bucket every instance shares. */
+export type PhotoStorageConfig = { kind: 'disk'; dir: string } | ({ kind: 's3' } & S3Config);
 
 export type Config = {
   env: 'development' | 'test' | 'production';
@@ -55,8 +74,9 @@ export type Config = {
   logRequests: boolean;
   dbTimeoutMs: number;
   version: string;
-  /** Base of links in e-mails, e.g. https://quenchbook.example.org */
+  /** Base of links in e-mails, e.g. https://quenchbook.example.org; the one origin CORS allows. */
   publicUrl: string;
+  photos: PhotoStorageConfig;
   auth: {
     jwtSecret: string;
     accessTtlSeconds: number;
@@ -99,6 +119,14 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     problems.push('  QB_PASSWORD_COST: only "owasp" is allowed in production');
   }
   if (production && !e.SMTP_HOST) problems.push('  SMTP_HOST: required in production');
+  // Links in e-mails and the CORS origin come from it; a guess from HOST and PORT is wrong
+  // behind any proxy.
+  if (production && !e.QB_PUBLIC_URL) problems.push('  QB_PUBLIC_URL: required in production');
+  if (e.QB_S3_BUCKET && !(e.QB_S3_ACCESS_KEY_ID && e.QB_S3_SECRET_ACCESS_KEY)) {
+    problems.push(
+      '  QB_S3_ACCESS_KEY_ID, QB_S3_SECRET_ACCESS_KEY: required when QB_S3_BUCKET is set',
+    );
+  }
   if (problems.length) {
     throw new Error(`Invalid configuration in environment variables:\n${problems.join('\n')}`);
   }
@@ -120,6 +148,19 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     dbTimeoutMs: e.QB_DB_TIMEOUT_MS,
     version: readVersion(),
     publicUrl: (e.QB_PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, ''),
+    photos:
+      e.QB_S3_BUCKET && e.QB_S3_ACCESS_KEY_ID && e.QB_S3_SECRET_ACCESS_KEY
+        ? {
+            kind: 's3',
+            bucket: e.QB_S3_BUCKET,
+            endpoint: e.QB_S3_ENDPOINT,
+            region: e.QB_S3_REGION,
+            accessKeyId: e.QB_S3_ACCESS_KEY_ID,
+            secretAccessKey: e.QB_S3_SECRET_ACCESS_KEY,
+            // Most S3-compatible stores (and the local fake) only answer path-style requests.
+            forcePathStyle: e.QB_S3_FORCE_PATH_STYLE ?? true,
+          }
+        : { kind: 'disk', dir: path.join(dataDir, 'photos') },
     auth: {
       // Outside production a per-process secret is fine: a restart only forces a token refresh.
       jwtSecret: e.QB_JWT_SECRET ?? randomBytes(32).toString('base64url'),

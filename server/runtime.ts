@@ -4,11 +4,14 @@ import { createSequelize } from './db';
 import { createMailer, type Mailer } from './mail/sender';
 import { OWASP_ARGON2ID, TEST_ARGON2ID } from './passwords/cost';
 import { createPasswordHasher, type PasswordHasher } from './passwords/hasher';
+import { createPhotoStore } from './photos/configured-store';
+import type { PhotoStore } from './photos/store';
 
 export type Runtime = {
   sequelize: Sequelize;
   hasher: PasswordHasher;
   mailer: Mailer;
+  photoStore: PhotoStore;
   close: () => Promise<void>;
 };
 
@@ -27,12 +30,15 @@ export function createRuntime(config: Config, databaseUrl: string): Runtime {
     pass: config.mail.pass,
     from: config.mail.from,
   });
+  const photoStore = createPhotoStore(config.photos);
   return {
     sequelize,
     hasher,
     mailer,
+    photoStore,
     close: async () => {
       mailer.close();
+      await photoStore.close?.();
       await hasher.close();
       await sequelize.close();
     },

@@ -2,6 +2,7 @@ import type { Request, RequestHandler } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { Config } from '../config';
 import { AppError } from '../errors';
+import { PostgresRateLimitStore } from './rate-limit-store';
 
 type Key = 'ip' | 'email';
 
@@ -13,7 +14,7 @@ function keyOf(req: Request, key: Key): string {
 
 /**
  * Limits tries per IP or per account (the e-mail in the body), e.g. 10 per 15 minutes.
- * The count lives in this process's memory; several instances need a shared store.
+ * The count lives in PostgreSQL, so all instances of the server share it.
  */
 export function limitTries(config: Config, name: string, key: Key): RequestHandler {
   return rateLimit({
@@ -21,6 +22,7 @@ export function limitTries(config: Config, name: string, key: Key): RequestHandl
     limit: config.auth.rateLimitMax,
     standardHeaders: 'draft-7',
     legacyHeaders: false,
+    store: new PostgresRateLimitStore(),
     keyGenerator: (req) => `${name}:${keyOf(req, key)}`,
     handler: (req, res, next) => {
       const resetTime = (req as Request & { rateLimit?: { resetTime?: Date } }).rateLimit

@@ -14,6 +14,7 @@ import { MembershipModel } from './membership';
 import { PairImportModel } from './pair-import';
 import { PasswordResetModel } from './password-reset';
 import { PhotoModel } from './photo';
+import { RateLimitModel } from './rate-limit';
 import { RecipeModel } from './recipe';
 import { RecipeRevisionModel } from './recipe-revision';
 import { SessionModel } from './session';
@@ -29,6 +30,7 @@ export {
   MarkModel,
   MeasurementModel,
   PhotoModel,
+  RateLimitModel,
   ChemicalModel,
   CriteriaProfileModel,
   IngredientModel,
@@ -68,6 +70,7 @@ export function initModels(sequelize: Sequelize): void {
     PhotoModel,
     CriteriaProfileModel,
     PairImportModel,
+    RateLimitModel,
   ]) {
     model.initModel(sequelize);
   }

@@ -1,3 +1,4 @@
+import { pipeline } from 'node:stream/promises';
 import { Router } from 'express';
 import { z } from 'zod';
 import {
@@ -215,9 +216,16 @@ export function burnTestsRouter(store: PhotoStore): Router {
       requireLab('read'),
       validate({ params: photoRead }),
       async (_req, res) => {
-        const data = await readPhoto(store, labOf(res).id, res.locals.params.photoId, thumb);
+        const photo = await readPhoto(store, labOf(res).id, res.locals.params.photoId, thumb);
         res.setHeader('Cache-Control', 'private, max-age=86400');
-        res.type('image/jpeg').send(data);
+        res.type('image/jpeg');
+        if (photo.size) res.setHeader('Content-Length', String(photo.size));
+        try {
+          await pipeline(photo.body, res);
+        } catch (err) {
+          // The viewer went away mid-photo: nothing to answer and nothing to log.
+          if ((err as NodeJS.ErrnoException).code !== 'ERR_STREAM_PREMATURE_CLOSE') throw err;
+        }
       },
     );
   }

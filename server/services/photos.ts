@@ -1,7 +1,7 @@
 import { AppError } from '../errors';
 import { BurnPairModel, PhotoModel } from '../models';
 import { processPhoto } from '../photos/process';
-import type { PhotoStore } from '../photos/store';
+import type { PhotoStore, StoredPhoto } from '../photos/store';
 
 const key = (id: string, thumb: boolean) => `${id}${thumb ? '.thumb' : ''}.jpg`;
 
@@ -75,9 +75,10 @@ export async function readPhoto(
   labId: string,
   photoId: string,
   thumb: boolean,
-): Promise<Buffer> {
+): Promise<StoredPhoto> {
   const row = await PhotoModel.findOne({ where: { id: photoId, labId } });
-  const data = row ? await store.get(key(row.id, thumb)) : undefined;
+  // The store is asked only for an id the database knows, never for what the caller typed.
+  const data = row ? await store.open(key(row.id, thumb)) : undefined;
   if (!data) throw AppError.notFound('No such photo in this lab.');
   return data;
 }

@@ -13,6 +13,7 @@ export const errorCodes = [
   'invalid_credentials',
   'forbidden',
   'csrf_failed',
+  'cross_origin',
   'rate_limited',
   'email_taken',
   'last_manager',
@@ -42,6 +43,8 @@ export const errorBodySchema = z
       code: z.string(),
       message: z.string(),
       fields: z.array(fieldErrorSchema).optional(),
+      /** Quote it when reporting a failure: it finds the request in the server's log. */
+      requestId: z.string().optional(),
     }),
   })
   .meta({ id: 'Error' });

@@ -16,6 +16,7 @@ describe('PATCH /api/labs/:labId/members/:userId', () => {
     expect(res.body.error).toEqual({
       code: 'last_manager',
       message: 'A lab needs at least one manager. Make someone else a manager first.',
+      requestId: expect.any(String),
     });
   });
 

@@ -13,6 +13,7 @@ const ALL = [
   '0005-criteria-profiles',
   '0006-lab-data-versions',
   '0007-pair-imports',
+  '0008-rate-limits',
 ];
 
 let db: TestDatabase;

@@ -4,8 +4,10 @@ import type { Express } from 'express';
 import { createApp } from '../../server/app';
 import type { Config } from '../../server/config';
 import { createMailer, type Mailer } from '../../server/mail/sender';
+import type { ErrorContext } from '../../server/middleware/error';
 import { TEST_ARGON2ID } from '../../server/passwords/cost';
 import { createPasswordHasher, type PasswordHasher } from '../../server/passwords/hasher';
+import type { PhotoStore } from '../../server/photos/store';
 import type { ServiceDeps } from '../../server/services/deps';
 import { freshDatabase, type TestDatabase } from './db';
 
@@ -30,8 +32,9 @@ export function buildApp(
   db: TestDatabase,
   options: {
     config?: Partial<Config>;
-    logError?: (err: unknown) => void;
+    logError?: (err: unknown, context: ErrorContext) => void;
     hasher?: PasswordHasher;
+    photoStore?: PhotoStore;
   } = {},
 ): TestApp {
   const config: Config = { ...db.config, ...options.config };
@@ -42,6 +45,7 @@ export function buildApp(
     sequelize: db.sequelize,
     hasher,
     mailer,
+    photoStore: options.photoStore,
     logError: options.logError,
   });
   return {

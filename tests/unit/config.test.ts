@@ -28,4 +28,38 @@ describe('loadConfig', () => {
     expect(loadConfig({ NODE_ENV: 'test' }).logRequests).toBe(false);
     expect(loadConfig({ NODE_ENV: 'test', QB_LOG_REQUESTS: '1' }).logRequests).toBe(true);
   });
+
+  it('keeps photos on local disk unless an S3 bucket is configured', () => {
+    expect(loadConfig({ QB_DATA_DIR: '/srv/qb' }).photos).toEqual({
+      kind: 'disk',
+      dir: '/srv/qb/photos',
+    });
+    const s3 = loadConfig({
+      QB_S3_BUCKET: 'lab-photos',
+      QB_S3_ENDPOINT: 'http://127.0.0.1:9000',
+      QB_S3_ACCESS_KEY_ID: 'id',
+      QB_S3_SECRET_ACCESS_KEY: 'secret',
+    }).photos;
+    expect(s3).toEqual({
+      kind: 's3',
+      bucket: 'lab-photos',
+      endpoint: 'http://127.0.0.1:9000',
+      region: 'us-east-1',
+      accessKeyId: 'id',
+      secretAccessKey: 'secret',
+      forcePathStyle: true,
+    });
+  });
+
+  it('refuses an S3 bucket without its keys, naming both variables', () => {
+    expect(() => loadConfig({ QB_S3_BUCKET: 'lab-photos' })).toThrow(
+      /QB_S3_ACCESS_KEY_ID, QB_S3_SECRET_ACCESS_KEY/,
+    );
+  });
+
+  it('requires the public URL, the JWT secret and SMTP in production', () => {
+    expect(() => loadConfig({ NODE_ENV: 'production' })).toThrow(
+      /QB_JWT_SECRET[\s\S]*SMTP_HOST[\s\S]*QB_PUBLIC_URL/,
+    );
+  });
 });

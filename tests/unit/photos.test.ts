@@ -7,8 +7,9 @@ import request from 'supertest';
 import { AppError } from '../../server/errors';
 import { errorHandler } from '../../server/middleware/error';
 import { processPhoto } from '../../server/photos/process';
-import { createDiskPhotoStore } from '../../server/photos/store';
+import { createDiskPhotoStore, fileInRoot } from '../../server/photos/store';
 import { photoUpload } from '../../server/photos/upload';
+import { readWhole } from '../support/photos';
 
 function blank(width: number, height: number) {
   return sharp({ create: { width, height, channels: 3, background: '#b5482c' } });
@@ -175,8 +176,8 @@ describe('createDiskPhotoStore', () => {
     await store.put(key, Buffer.from('photo bytes'));
     await store.put(thumbKey, Buffer.from('thumb bytes'));
 
-    expect((await store.get(key))?.toString()).toBe('photo bytes');
-    expect((await store.get(thumbKey))?.toString()).toBe('thumb bytes');
+    expect((await readWhole(store, key))?.toString()).toBe('photo bytes');
+    expect((await readWhole(store, thumbKey))?.toString()).toBe('thumb bytes');
     expect((await readdir(root)).sort()).toEqual([key, thumbKey].sort());
   });
 
@@ -184,16 +185,16 @@ describe('createDiskPhotoStore', () => {
     const store = createDiskPhotoStore(root);
     await store.put(key, Buffer.from('first'));
     await store.put(key, Buffer.from('second'));
-    expect((await store.get(key))?.toString()).toBe('second');
+    expect((await readWhole(store, key))?.toString()).toBe('second');
   });
 
   it('answers undefined for a missing key, and removing it twice is fine', async () => {
     const store = createDiskPhotoStore(root);
-    expect(await store.get(key)).toBeUndefined();
+    expect(await readWhole(store, key)).toBeUndefined();
     await store.put(key, Buffer.from('x'));
     await store.remove(key);
     await store.remove(key);
-    expect(await store.get(key)).toBeUndefined();
+    expect(await readWhole(store, key)).toBeUndefined();
   });
 
   it.each([
@@ -205,11 +206,26 @@ describe('createDiskPhotoStore', () => {
     '0f8fad5b-d9cb-469f-a165-70867728950e.jpg/',
     'photo.jpg',
     '',
-  ])('refuses the key %j for put, get and remove', async (bad) => {
+    '../../etc/passwd',
+    '%2e%2e/%2e%2e/etc/passwd',
+    '/etc/passwd',
+    '/tmp/0f8fad5b-d9cb-469f-a165-70867728950e.jpg',
+    '0f8fad5b-d9cb-469f-a165-70867728950e.jpg\0',
+    '0f8fad5b-d9cb-469f-a165-70867728950e\0.jpg',
+    '------------------------------------.jpg',
+    '..\\0f8fad5b-d9cb-469f-a165-70867728950e.jpg',
+  ])('refuses the key %j for put, open and remove', async (bad) => {
     const store = createDiskPhotoStore(root);
     await expect(store.put(bad, Buffer.from('x'))).rejects.toThrow(/Not a photo key/);
-    await expect(store.get(bad)).rejects.toThrow(/Not a photo key/);
+    await expect(store.open(bad)).rejects.toThrow(/Not a photo key/);
     await expect(store.remove(bad)).rejects.toThrow(/Not a photo key/);
+    // Nothing was made, not even the root folder.
+    await expect(readdir(root)).rejects.toThrow(/ENOENT/);
+  });
+
+  it('places a good key directly inside the resolved root, even from a relative root', () => {
+    const file = fileInRoot('photos/../photos', key);
+    expect(file).toBe(path.resolve('photos', key));
   });
 });
 
