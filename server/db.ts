@@ -16,7 +16,7 @@ export function createSequelize(databaseUrl: string): Sequelize {
 
 /** True when the database answers a trivial query within the timeout. */
 export async function databaseIsUp(sequelize: Sequelize, timeoutMs: number): Promise<boolean> {
-  let timer: NodeJS.Timeout | undefined;
+  let timer: ReturnType<typeof setTimeout> | undefined;
   const timeout = new Promise<false>((resolve) => {
     timer = setTimeout(() => resolve(false), timeoutMs);
   });
