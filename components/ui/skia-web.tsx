@@ -1,0 +1,24 @@
+import { lazy, Suspense, type ComponentType, type ReactNode } from 'react';
+
+/**
+ * A Skia view for the web that loads everything it needs on first render: CanvasKit's wasm
+ * (from the site root; scripts/web-build.ts copies it into public/), its JavaScript loader and
+ * the view itself. Skia's own WithSkiaWeb imports that loader statically, which puts it in
+ * every page's first load.
+ */
+export function lazySkiaView<P extends object>(
+  load: () => Promise<{ default: ComponentType<P> }>,
+): ComponentType<P & { fallback: ReactNode }> {
+  const View = lazy(async () => {
+    const { LoadSkiaWeb } = await import('@shopify/react-native-skia/lib/module/web/LoadSkiaWeb');
+    await LoadSkiaWeb({ locateFile: (file: string) => `/${file}` });
+    return load();
+  });
+  return function SkiaView({ fallback, ...props }: P & { fallback: ReactNode }) {
+    return (
+      <Suspense fallback={fallback}>
+        <View {...(props as P)} />
+      </Suspense>
+    );
+  };
+}
