@@ -18,6 +18,8 @@ import { signInThroughUi } from '../support/ui';
 
 // axe-core on every main screen at phone size (390×844) with the demo data: no serious or
 // critical findings. Then the keyboard: Tab reaches every control, and each has a name.
+// Source: axe-core's rule set (WCAG 2.0–2.2 level A and AA, plus its best practices) and the
+// impact it gives each finding; accessible names as axe-core computes them.
 jest.setTimeout(300_000);
 
 let db: TestDatabase;
