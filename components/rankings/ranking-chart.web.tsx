@@ -4,7 +4,10 @@ import { AppText } from '../ui/text';
 import { chartBars } from './chart-data';
 
 // CanvasKit (8 MB) and the chart load here, when a chart is drawn.
-const ChartView = lazySkiaView(() => import('./ranking-chart-view'));
+const ChartView = lazySkiaView(
+  () => import('./chart-views'),
+  (views) => views.RankingChartView,
+);
 
 export function RankingChart({ treatments }: { treatments: TreatmentStatsOutput[] }) {
   return (
