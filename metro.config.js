@@ -1,9 +1,25 @@
 // Metro for `npm run dev`: the Expo web dev server forwards /api to the API server, so the
 // app talks to one origin in development just as it does in production.
 const http = require('node:http');
+const path = require('node:path');
 const { getDefaultConfig } = require('expo/metro-config');
 
 const config = getDefaultConfig(__dirname);
+
+// zod re-exports every one of its ~50 locales (about 270 KB minified) and Metro does not
+// drop unused exports, so they would all load with the first page. The app speaks English:
+// zod's locales index resolves to a module with English alone.
+const zodLocales = path.join(__dirname, 'metro-zod-locales.js');
+const resolveRequest = config.resolver.resolveRequest;
+config.resolver.resolveRequest = (context, moduleName, platform) => {
+  if (
+    moduleName === '../locales/index.js' &&
+    /[\\/]node_modules[\\/]zod[\\/]/.test(context.originModulePath)
+  ) {
+    return { type: 'sourceFile', filePath: zodLocales };
+  }
+  return (resolveRequest ?? context.resolveRequest)(context, moduleName, platform);
+};
 const apiUrl = process.env.QB_DEV_API_URL;
 
 if (apiUrl) {

@@ -1,6 +1,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import http from 'node:http';
 import net from 'node:net';
+import path from 'node:path';
 import { childEnv, loadConfig, repoRoot } from '../server/config';
 import { testCluster } from '../scripts/local-db';
 import {
@@ -108,3 +109,39 @@ export function percentile(values: number[], p: number): number {
 }
 
 export const fmt = (ms: number) => `${ms.toFixed(1)} ms`;
+
+/**
+ * The load benchmark's server (bench/load-server.ts): node itself, not npx, so the IPC channel
+ * reaches it and it can report its own memory.
+ */
+export async function startServerWithMemory(env: Record<string, string>): Promise<{
+  url: string;
+  memory: () => Promise<NodeJS.MemoryUsage>;
+  stop: () => void;
+}> {
+  const port = await freePort();
+  const child = spawn(
+    process.execPath,
+    ['--expose-gc', '--import', 'tsx', path.join('bench', 'load-server.ts')],
+    {
+      cwd: repoRoot,
+      stdio: ['ignore', 'pipe', 'inherit', 'ipc'],
+      env: childEnv({ ...env, PORT: String(port), QB_LOG_REQUESTS: '0' }),
+    },
+  );
+  await new Promise<void>((resolve, reject) => {
+    child.stdout!.on('data', (chunk: Buffer) => {
+      if (chunk.toString().includes('API listening')) resolve();
+    });
+    child.once('exit', (code) => reject(new Error(`server exited with ${code}`)));
+  });
+  return {
+    url: `http://127.0.0.1:${port}`,
+    memory: () =>
+      new Promise((resolve) => {
+        child.once('message', (m) => resolve((m as { memory: NodeJS.MemoryUsage }).memory));
+        child.send('memory');
+      }),
+    stop: () => child.kill('SIGTERM'),
+  };
+}

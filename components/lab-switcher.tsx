@@ -35,7 +35,7 @@ export function LabSwitcher({ compact }: { compact?: boolean }) {
       <Pressable
         accessibilityRole="button"
         aria-expanded={open}
-        aria-label={`Lab: ${lab.name}, your role: ${roleWord[lab.role]}. Switch lab`}
+        // Named by what it shows (lab, role, "switch"), so speech control finds it by its words.
         testID="lab-switcher"
         onPress={() => setOpen((v) => !v)}
         style={[styles.current, compact && styles.currentCompact]}

@@ -12,6 +12,8 @@ const SOURCES = [
   'app.json',
   'package.json',
   'tsconfig.json',
+  'metro.config.js',
+  'metro-zod-locales.js',
 ];
 
 function newestMtime(target: string): number {

@@ -100,8 +100,15 @@ type Row = { key: string; cells: string[]; testID?: string; strong?: boolean[] }
 
 function SheetTable({ label, columns, rows }: { label: string; columns: Column[]; rows: Row[] }) {
   return (
-    // Narrow phones scroll the table sideways; on paper it fits the page width.
-    <ScrollView horizontal contentContainerStyle={styles.tableScroll}>
+    // Narrow phones scroll the table sideways; on paper it fits the page width. Focusable, so
+    // the keyboard can scroll it too.
+    <ScrollView
+      horizontal
+      focusable
+      role="region"
+      aria-label={label}
+      contentContainerStyle={styles.tableScroll}
+    >
       <View role="table" aria-label={label} style={styles.table}>
         <View role="row" style={[styles.tr, styles.thead]}>
           {columns.map((c, i) => (

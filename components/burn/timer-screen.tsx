@@ -96,13 +96,17 @@ function LaneView({
     derived.state === 'exposing' && applied !== undefined && now - applied >= exposureS * 1000;
   const last = derived.effective[derived.effective.length - 1];
   const main = nextMarks(derived.state);
+  const title = `${role === 'control' ? 'Control (untreated)' : 'Treated'} · ${lane.specimen.code}`;
   return (
+    // A named group per lane, so a screen reader tells the two "Flame applied" buttons apart.
     <View
+      role="group"
+      aria-label={title}
       style={[styles.lane, { backgroundColor: overdue ? '#FFB38A' : stateColours[derived.state] }]}
       testID={`lane-${role}`}
     >
       <AppText variant="label" tone="muted">
-        {role === 'control' ? 'Control (untreated)' : 'Treated'} · {lane.specimen.code}
+        {title}
       </AppText>
       <AppText variant="heading" testID={`lane-${role}-state`}>
         {stateWords[derived.state]}
