@@ -1,15 +1,13 @@
-import { WithSkiaWeb } from '@shopify/react-native-skia/lib/module/web';
+import { lazySkiaView } from '../ui/skia-web';
 import { AppText } from '../ui/text';
 import type { PairLines } from './treatment-chart-data';
 
-// CanvasKit loads here, when the chart is drawn, from the site root (see ranking-chart.web.tsx).
+// CanvasKit and the chart load here, when the chart is drawn (see lazySkiaView).
+const ChartView = lazySkiaView(
+  () => import('./chart-views'),
+  (views) => views.PairLinesChartView,
+);
+
 export function PairLinesChart({ lines }: { lines: PairLines }) {
-  return (
-    <WithSkiaWeb
-      getComponent={() => import('./pair-lines-chart-view')}
-      opts={{ locateFile: (file: string) => `/${file}` }}
-      componentProps={{ lines }}
-      fallback={<AppText tone="muted">Drawing the chart…</AppText>}
-    />
-  );
+  return <ChartView lines={lines} fallback={<AppText tone="muted">Drawing the chart…</AppText>} />;
 }
