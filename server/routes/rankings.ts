@@ -35,10 +35,14 @@ export function rankingsRouter(): Router {
     '/labs/:labId/rankings',
     requireLab('read'),
     validate({ query: rankingQuerySchema }),
-    async (_req, res) => {
-      const { json, etag } = await rankingsJson(labOf(res).id, res.locals.query);
-      // Express answers 304 when the request's If-None-Match carries this tag.
-      res.set('ETag', etag).type('application/json').send(json);
+    async (req, res) => {
+      const { json, gzipped, etag } = await rankingsJson(labOf(res).id, res.locals.query);
+      const gzip = req.acceptsEncodings('gzip', 'identity') === 'gzip';
+      // Express answers 304 when the request's If-None-Match carries the tag.
+      res.vary('Accept-Encoding').type('application/json');
+      if (gzip) res.set({ 'Content-Encoding': 'gzip', ETag: etag.replace(/"$/, '-gz"') });
+      else res.set('ETag', etag);
+      res.send(gzip ? gzipped : json);
     },
   );
   router.get('/labs/:labId/criteria-presets', requireLab('read'), (_req, res) => {

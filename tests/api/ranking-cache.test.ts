@@ -105,6 +105,24 @@ describe('GET /api/labs/:labId/rankings (served again until the data changes)', 
     expect(rankingSchema.parse(changed.body).notEnoughPairs[0]!.treatedChar.mean).toBe(64);
   });
 
+  it('sends the ranking compressed to clients that accept gzip, and the same figures uncompressed to others', async () => {
+    const { lead, labId } = await labWithSignedOffPair(60);
+    const path = `/api/labs/${labId}/rankings`;
+    const zipped = await request(t.app)
+      .get(path)
+      .set(bearer(lead.token))
+      .set('Accept-Encoding', 'gzip');
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.headers.vary).toMatch(/Accept-Encoding/);
+    const plain = await request(t.app)
+      .get(path)
+      .set(bearer(lead.token))
+      .set('Accept-Encoding', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(plain.headers.etag).not.toBe(zipped.headers.etag);
+    expect(zipped.body).toEqual(plain.body);
+  });
+
   it('answers a renamed recipe with the new name', async () => {
     const { lead, labId } = await labWithSignedOffPair(60);
     const [before] = await ranking(labId, lead.token);
