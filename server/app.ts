@@ -7,6 +7,7 @@ import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
 import type { Mailer } from './mail/sender';
 import { authenticate } from './middleware/auth';
+import { refuseOtherBodyTypes } from './middleware/body-type';
 import { apiNotFound, errorHandler } from './middleware/error';
 import { createRegistry, generateDocument } from './openapi';
 import type { PasswordHasher } from './passwords/hasher';
@@ -67,6 +68,7 @@ export function createApp({
 
   const docs = createRegistry();
   const api = express.Router();
+  api.use(refuseOtherBodyTypes());
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRouter({ sequelize, version: config.version, dbTimeoutMs: config.dbTimeoutMs }));
   registerHealthDocs(docs);

@@ -3,7 +3,38 @@ import { ZodError } from 'zod';
 import type { ErrorBody } from '../../shared/schemas/error';
 import { AppError } from '../errors';
 
-type BodyParserError = Error & { type?: string; status?: number };
+type HttpError = Error & { type?: string; status?: number; expose?: boolean };
+
+/** Errors of reading the request itself (body-parser, the router): the client's fault. */
+function requestError(err: HttpError): AppError | undefined {
+  const status = err.status ?? 0;
+  if (status < 400 || status > 499) return undefined;
+  if (err.type === 'entity.parse.failed') {
+    return new AppError(400, 'malformed_json', 'The request body is not valid JSON.', [
+      { path: '', message: 'Not valid JSON' },
+    ]);
+  }
+  if (err.type === 'entity.too.large') {
+    return new AppError(413, 'payload_too_large', 'The request body is too large.');
+  }
+  if (status === 415) {
+    // An unsupported charset or content encoding.
+    return new AppError(415, 'unsupported_media_type', 'Send the request body as UTF-8 JSON.');
+  }
+  if (err instanceof URIError) {
+    // The router could not percent-decode a path segment.
+    return new AppError(400, 'invalid_request', 'The address is not valid.', [
+      { path: 'path', message: 'Contains a broken %-escape' },
+    ]);
+  }
+  if (err.type || err.expose) {
+    // e.g. a body that claims gzip but is not, or a request cut short.
+    return new AppError(400, 'invalid_request', 'The request body could not be read.', [
+      { path: '', message: 'Could not be read' },
+    ]);
+  }
+  return undefined;
+}
 
 function toAppError(err: unknown): AppError | undefined {
   if (err instanceof AppError) return err;
@@ -11,13 +42,7 @@ function toAppError(err: unknown): AppError | undefined {
     const fields = err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
     return new AppError(400, 'invalid_request', 'Some fields are not valid.', fields);
   }
-  const type = (err as BodyParserError | undefined)?.type;
-  if (type === 'entity.parse.failed') {
-    return new AppError(400, 'malformed_json', 'The request body is not valid JSON.');
-  }
-  if (type === 'entity.too.large') {
-    return new AppError(413, 'payload_too_large', 'The request body is too large.');
-  }
+  if (err instanceof Error) return requestError(err as HttpError);
   return undefined;
 }
 

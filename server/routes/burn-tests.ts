@@ -193,14 +193,14 @@ export function burnTestsRouter(store: PhotoStore): Router {
     requireLab('edit'),
     validate({ params: pairParamsSchema }),
     photoUpload(PHOTO_MAX_BYTES),
+    validate({ form: photoFieldsSchema }),
     async (req, res) => {
-      const fields = photoFieldsSchema.parse(req.body);
       const { photo, created } = await addPhoto(
         store,
         labOf(res).id,
         res.locals.params.pairId,
         authOf(res).user.id,
-        fields,
+        res.locals.body,
         req.file!.buffer,
       );
       res.status(created ? 201 : 200).json(photo);

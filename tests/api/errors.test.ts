@@ -58,6 +58,58 @@ describe('request bodies', () => {
   });
 });
 
+// Found by the hostile-input tests: each of these used to be a 500 or to reach a handler as `{}`.
+describe('requests that cannot be read', () => {
+  it('answers 400 naming the path for a broken %-escape in a path parameter', async () => {
+    const res = await request(app()).get('/api/invitations/%E0%A4%A');
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual([
+      { path: 'path', message: 'Contains a broken %-escape' },
+    ]);
+    expect(logged).toEqual([]);
+  });
+
+  it('answers 400 for a body that claims to be gzip but is not', async () => {
+    const res = await request(app())
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .set('Content-Encoding', 'gzip')
+      .send('{"email":"a@example.test","password":"x"}');
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toHaveLength(1);
+    expect(logged).toEqual([]);
+  });
+
+  it('answers 415 for a write whose body is text, a form or XML', async () => {
+    for (const type of ['text/plain', 'application/x-www-form-urlencoded', 'application/xml']) {
+      const res = await request(app())
+        .post('/api/auth/sign-in')
+        .set('Content-Type', type)
+        .send('email=a@example.test');
+      expect(res.status).toBe(415);
+      expect(errorBodySchema.parse(res.body).error.code).toBe('unsupported_media_type');
+    }
+  });
+
+  it('answers 415 for a body without a Content-Type, but takes an empty one', async () => {
+    const withBody = await request(app()).post('/api/auth/refresh').send(Buffer.from('{"a":1}'));
+    expect(withBody.status).toBe(415);
+    const empty = await request(app()).post('/api/auth/refresh');
+    expect(empty.status).toBe(401);
+  });
+
+  it('names the body as the field of a 400 for malformed JSON', async () => {
+    const res = await request(app())
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .send('{"email": ');
+    expect(res.body.error).toMatchObject({
+      code: 'malformed_json',
+      fields: [{ path: '', message: 'Not valid JSON' }],
+    });
+  });
+});
+
 describe('security headers', () => {
   it('sends a Content-Security-Policy and hides the framework', async () => {
     const res = await request(app()).get('/api/health');
