@@ -420,11 +420,22 @@ export async function addMarks(
 ): Promise<Pair> {
   const row = await loadPair(labId, pairId);
   const lanes = new Set([row.controlSpecimenId, row.treatedSpecimenId]);
-  const fields = input.marks.flatMap((m, i) =>
-    lanes.has(m.specimenId)
-      ? []
-      : [{ path: `marks.${i}.specimenId`, message: 'Not a specimen of this pair' }],
+  // An undo names a mark of this test: one stored before, or one sent with it.
+  const undone = input.marks.flatMap((m) => (m.undoes ? [m.undoes] : []));
+  const stored = new Set(
+    (await MarkModel.findAll({ where: { id: undone, pairId }, attributes: ['id'] })).map(
+      (m) => m.id,
+    ),
   );
+  const sent = new Set(input.marks.map((m) => m.id));
+  const fields = input.marks.flatMap((m, i) => [
+    ...(lanes.has(m.specimenId)
+      ? []
+      : [{ path: `marks.${i}.specimenId`, message: 'Not a specimen of this pair' }]),
+    ...(m.undoes && !stored.has(m.undoes) && !sent.has(m.undoes)
+      ? [{ path: `marks.${i}.undoes`, message: 'Names no mark of this test' }]
+      : []),
+  ]);
   if (fields.length)
     throw new AppError(400, 'invalid_request', 'Some fields are not valid.', fields);
   const known = await MarkModel.findAll({
