@@ -370,6 +370,9 @@ export function registerBurnDocs(docs: ApiDocs): void {
       'Upload a photo (multipart: photo, clientId, specimenId, stage); images only, checked by content, EXIF removed',
     access: editor,
     params: pairParamsSchema,
+    multipart: photoFieldsSchema.extend({
+      photo: z.string().meta({ format: 'binary', description: 'The image file' }),
+    }),
     ok: { status: 201, description: 'Stored' },
     errors: [...e, 413],
   });
