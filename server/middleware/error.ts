@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { ErrorBody } from '../../shared/schemas/error';
+import { isDatabaseUnavailable } from '../db';
 import { AppError } from '../errors';
 
 type HttpError = Error & { type?: string; status?: number; expose?: boolean };
@@ -46,10 +47,25 @@ function toAppError(err: unknown): AppError | undefined {
   return undefined;
 }
 
+/** Seconds a client should wait before retrying while the database is unreachable. */
+export const UNAVAILABLE_RETRY_AFTER_S = 2;
+
+function unavailable(): AppError {
+  return new AppError(
+    503,
+    'unavailable',
+    'The database is not answering right now. Please try again in a moment.',
+  );
+}
+
 export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
-    const known = toAppError(err);
+    const down = isDatabaseUnavailable(err);
+    const known = down ? unavailable() : toAppError(err);
     if (!known) log(err);
+    // A retryable outage, not a bug: a short line instead of a stack for each request.
+    if (down) log(`database unavailable: ${(err as Error).message}`);
+    if (down) res.setHeader('Retry-After', String(UNAVAILABLE_RETRY_AFTER_S));
     const appError =
       known ?? new AppError(500, 'internal', 'Something went wrong on our side. Please try again.');
     const body: ErrorBody = {

@@ -1,4 +1,6 @@
 import request from 'supertest';
+import { createApp } from '../../server/app';
+import { createSequelize } from '../../server/db';
 import { errorBodySchema } from '../../shared/schemas/error';
 import { buildApp, type TestApp } from '../support/app';
 import { freshDatabase, type TestDatabase } from '../support/db';
@@ -107,6 +109,23 @@ describe('requests that cannot be read', () => {
       code: 'malformed_json',
       fields: [{ path: '', message: 'Not valid JSON' }],
     });
+  });
+});
+
+describe('a database that does not answer', () => {
+  it('answers 503 unavailable with Retry-After, not a 500', async () => {
+    // A loopback port where no server listens: what the app sees while PostgreSQL is stopped.
+    const down = createSequelize('postgres://quenchbook:x@127.0.0.1:1/none');
+    try {
+      const res = await request(createApp({ ...built.deps, sequelize: down, logError: () => {} }))
+        .post('/api/auth/sign-in')
+        .send({ email: 'someone@example.test', password: 'long enough password' });
+      expect(res.status).toBe(503);
+      expect(res.body.error.code).toBe('unavailable');
+      expect(Number(res.headers['retry-after'])).toBeGreaterThan(0);
+    } finally {
+      await down.close();
+    }
   });
 });
 
