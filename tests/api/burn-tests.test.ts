@@ -206,6 +206,23 @@ describe('review and sign-off', () => {
       'submitted',
     );
   });
+
+  it('lets only one of two reviewers acting at once move a test, with one history entry', async () => {
+    const { lead, tech, reviewer } = await lab();
+    const { pair } = await sessionWithPair(lead.labId, tech.email);
+    const base = `/api/labs/${lead.labId}/pairs/${pair.id}`;
+    await request(t.app).post(`${base}/submit`).set(bearer(tech.token));
+    const [signOff, giveBack] = await Promise.all([
+      request(t.app).post(`${base}/sign-off`).set(bearer(lead.token)),
+      request(t.app)
+        .post(`${base}/return`)
+        .set(bearer(reviewer.token))
+        .send({ comment: 'Redo it' }),
+    ]);
+    expect([signOff.status, giveBack.status].sort()).toEqual([200, 409]);
+    const after = await request(t.app).get(base).set(bearer(tech.token));
+    expect(after.body.history.map((h: { action: string }) => h.action)).toHaveLength(2);
+  });
 });
 
 describe('POST /api/labs/:labId/pairs/:pairId/photos', () => {
