@@ -178,7 +178,9 @@ function multipart(fields: unknown, files: FilePart[]): { type: string; data: Bu
       ? Object.entries(fields)
       : [['body', fields] as const];
   for (const [name, value] of entries) {
-    for (const v of Array.isArray(value) ? value : [value]) {
+    // A list is the field repeated; an empty list still sends the field once, empty.
+    const values = Array.isArray(value) ? (value.length ? value : ['']) : [value];
+    for (const v of values) {
       chunks.push(
         head(`Content-Disposition: form-data; name="${name}"`),
         Buffer.from(fieldText(v)),
