@@ -10,7 +10,7 @@ import {
   signUpThrough,
   startServerProcess,
   type ServerProcess,
-} from '../support/server-process';
+} from '../support/killable-server';
 import { recordFigures, soak } from '../support/soak';
 import { PASSWORD, uniqueEmail } from '../support/accounts';
 

@@ -25,7 +25,7 @@ import {
   startServerProcess,
   type Reply,
   type ServerProcess,
-} from '../support/server-process';
+} from '../support/killable-server';
 import { recordFigures, soak } from '../support/soak';
 
 // PostgreSQL is restarted under load, on a cluster of this file's own (the shared test cluster
