@@ -15,14 +15,18 @@ function unsupported(): AppError {
 // some clients send chunked) from one that carries something.
 const readUntyped = express.raw({ type: (req) => !req.headers['content-type'], limit: '1mb' });
 
+/** Body types some route reads: JSON, multipart for uploads, CSV for imports. */
+const READ_TYPES = ['application/json', 'multipart/form-data', 'text/csv'];
+
 /**
- * A write's body is JSON, or multipart for an upload. Any other body would not be read at all,
+ * A write's body is one of the types a route reads. Any other body would not be read at all,
  * so a form post or a text body would arrive as "no fields": it is refused instead of ignored.
+ * (A route that takes JSON refuses the other read types itself, in `validate`.)
  */
 export function refuseOtherBodyTypes(): RequestHandler[] {
   return [
     (req, _res, next) => {
-      if (WRITES.has(req.method) && req.is(['application/json', 'multipart/form-data']) === false) {
+      if (WRITES.has(req.method) && req.is(READ_TYPES) === false) {
         if (req.headers['content-type']) return next(unsupported());
       }
       next();

@@ -182,6 +182,13 @@ function wholeBodyChanges(shape: RouteShape): fc.Arbitrary<Change>[] {
   ];
   if (shape.bodyKind === 'json') {
     out.push(
+      // A type another route reads (an import's CSV) is still not this route's JSON.
+      fc.constant<Change>({
+        kind: 'wrong content type',
+        label: 'body sent as text/csv',
+        edit: { at: 'raw-body', contentType: 'text/csv', text: 'a,b\n1,2\n' },
+        expect: [415],
+      }),
       fc.constantFrom('utf-16', 'koi8-r', 'x-unknown').map((charset): Change => ({
         kind: 'unsupported charset',
         label: `JSON in ${charset}`,
