@@ -7,6 +7,7 @@ import type { Config } from './config';
 import { contentSecurityPolicy } from './csp';
 import type { Mailer } from './mail/sender';
 import { authenticate } from './middleware/auth';
+import { refuseOtherBodyTypes } from './middleware/body-type';
 import { apiNotFound, errorHandler, type ErrorContext } from './middleware/error';
 import { publicOriginOnly } from './middleware/origin';
 import { assignRequestId } from './middleware/request-id';
@@ -67,6 +68,7 @@ export function createApp({
   const docs = createRegistry();
   const api = express.Router();
   api.use(publicOriginOnly(config.publicUrl));
+  api.use(refuseOtherBodyTypes());
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRouter({ sequelize, version: config.version, dbTimeoutMs: config.dbTimeoutMs }));
   registerHealthDocs(docs);

@@ -9,6 +9,8 @@ type PathDoc = {
   /** Who may call it, in words: shown in the description. */
   access: string;
   body?: z.ZodType;
+  /** A multipart/form-data body instead of JSON (uploads). */
+  multipart?: z.ZodObject;
   params?: z.ZodObject;
   query?: z.ZodObject;
   ok: { status: number; schema?: z.ZodType; description: string };
@@ -44,6 +46,9 @@ export function documentPath(docs: ApiDocs, d: PathDoc): void {
       ...(d.params ? { params: d.params } : {}),
       ...(d.query ? { query: d.query } : {}),
       ...(d.body ? { body: { content: { 'application/json': { schema: d.body } } } } : {}),
+      ...(d.multipart
+        ? { body: { content: { 'multipart/form-data': { schema: d.multipart } } } }
+        : {}),
     },
     responses: {
       [d.ok.status]: {

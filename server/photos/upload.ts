@@ -35,11 +35,15 @@ function toAppError(err: unknown, maxBytes: number): AppError {
         [{ path: err.field ?? PHOTO_FIELD, message: 'Send one photo only' }],
       );
     }
-    return new AppError(400, 'invalid_request', `The upload is not valid: ${err.message}.`);
+    return new AppError(400, 'invalid_request', `The upload is not valid: ${err.message}.`, [
+      { path: err.field ?? '', message: err.message },
+    ]);
   }
   // With memory storage and no file filter, multer's other errors come from reading the request
   // (a malformed multipart body, no boundary, the client going away): the request's fault, not ours.
-  return new AppError(400, 'invalid_request', 'The upload could not be read. Please try again.');
+  return new AppError(400, 'invalid_request', 'The upload could not be read. Please try again.', [
+    { path: '', message: 'Could not be read' },
+  ]);
 }
 
 /**

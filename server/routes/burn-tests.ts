@@ -194,14 +194,14 @@ export function burnTestsRouter(store: PhotoStore): Router {
     requireLab('edit'),
     validate({ params: pairParamsSchema }),
     photoUpload(PHOTO_MAX_BYTES),
+    validate({ form: photoFieldsSchema }),
     async (req, res) => {
-      const fields = photoFieldsSchema.parse(req.body);
       const { photo, created } = await addPhoto(
         store,
         labOf(res).id,
         res.locals.params.pairId,
         authOf(res).user.id,
-        fields,
+        res.locals.body,
         req.file!.buffer,
       );
       res.status(created ? 201 : 200).json(photo);
@@ -378,6 +378,9 @@ export function registerBurnDocs(docs: ApiDocs): void {
       'Upload a photo (multipart: photo, clientId, specimenId, stage); images only, checked by content, EXIF removed',
     access: editor,
     params: pairParamsSchema,
+    multipart: photoFieldsSchema.extend({
+      photo: z.string().meta({ format: 'binary', description: 'The image file' }),
+    }),
     ok: { status: 201, description: 'Stored' },
     errors: [...e, 413],
   });

@@ -11,7 +11,7 @@ import {
   type PostMarksInput,
   type Session,
 } from '../../shared/schemas/burn';
-import { createPairSchema, createSessionSchema } from '../../shared/schemas/burn';
+import { createPairSchema, createSessionSchema, type PairStatus } from '../../shared/schemas/burn';
 import { AppError } from '../errors';
 import {
   AuditEventModel,
@@ -180,15 +180,10 @@ export async function updateSession(
   }
   const complete = checklistItems.every((i) => checklist[i.key] === true);
   const changes: Partial<BurnSessionModel> = { checklist };
-  if (complete && !row.checklistCompletedAt) {
+  const completing = complete && !row.checklistCompletedAt;
+  if (completing) {
     changes.checklistCompletedAt = new Date();
     changes.checklistCompletedBy = userId;
-    await recordAudit({
-      action: 'checklist_completed',
-      labId,
-      actorId: userId,
-      detail: { sessionId, checklist },
-    });
   }
   if (!complete && row.checklistCompletedAt) {
     const burned = await MarkModel.count({ where: { pairId: (row.pairs ?? []).map((p) => p.id) } });
@@ -202,7 +197,16 @@ export async function updateSession(
     changes.checklistCompletedBy = null;
   }
   if (input.notes !== undefined) changes.notes = input.notes;
-  await row.update(changes);
+  // The completed checklist and its audit event are stored together or not at all.
+  await BurnSessionModel.sequelize!.transaction(async (transaction) => {
+    await row.update(changes, { transaction });
+    if (completing) {
+      await recordAudit(
+        { action: 'checklist_completed', labId, actorId: userId, detail: { sessionId, checklist } },
+        transaction,
+      );
+    }
+  });
   return getSession(labId, sessionId);
 }
 
@@ -420,11 +424,22 @@ export async function addMarks(
 ): Promise<Pair> {
   const row = await loadPair(labId, pairId);
   const lanes = new Set([row.controlSpecimenId, row.treatedSpecimenId]);
-  const fields = input.marks.flatMap((m, i) =>
-    lanes.has(m.specimenId)
-      ? []
-      : [{ path: `marks.${i}.specimenId`, message: 'Not a specimen of this pair' }],
+  // An undo names a mark of this test: one stored before, or one sent with it.
+  const undone = input.marks.flatMap((m) => (m.undoes ? [m.undoes] : []));
+  const stored = new Set(
+    (await MarkModel.findAll({ where: { id: undone, pairId }, attributes: ['id'] })).map(
+      (m) => m.id,
+    ),
   );
+  const sent = new Set(input.marks.map((m) => m.id));
+  const fields = input.marks.flatMap((m, i) => [
+    ...(lanes.has(m.specimenId)
+      ? []
+      : [{ path: `marks.${i}.specimenId`, message: 'Not a specimen of this pair' }]),
+    ...(m.undoes && !stored.has(m.undoes) && !sent.has(m.undoes)
+      ? [{ path: `marks.${i}.undoes`, message: 'Names no mark of this test' }]
+      : []),
+  ]);
   if (fields.length)
     throw new AppError(400, 'invalid_request', 'Some fields are not valid.', fields);
   const known = await MarkModel.findAll({
@@ -505,50 +520,68 @@ export async function putMeasurement(
   return getPair(labId, pairId);
 }
 
-export async function submitPair(labId: string, pairId: string, userId: string): Promise<Pair> {
-  const row = await loadPair(labId, pairId);
-  if (!editable(row))
-    throw new AppError(
-      409,
-      'invalid_transition',
-      'Only a draft or returned test can be submitted.',
-    );
-  await row.update({ status: 'submitted', submittedAt: new Date(), submittedBy: userId });
-  await recordAudit({ action: 'pair_submitted', labId, actorId: userId, detail: { pairId } });
-  return getPair(labId, pairId);
-}
-
-export async function signOffPair(labId: string, pairId: string, userId: string): Promise<Pair> {
-  const row = await loadPair(labId, pairId);
-  if (row.status !== 'submitted')
-    throw new AppError(409, 'invalid_transition', 'Only a submitted test can be signed off.');
-  await row.update({
-    status: 'signed_off',
-    signedOffAt: new Date(),
-    signedOffBy: userId,
-    reviewComment: null,
+/**
+ * Moves a test to its next review state with its audit event, in one transaction: the history
+ * never misses a step that happened, and of two reviewers acting at once only one moves it.
+ */
+async function movePair(
+  labId: string,
+  pairId: string,
+  from: (status: PairStatus) => boolean,
+  refusal: string,
+  changes: Partial<BurnPairModel>,
+  audit: Parameters<typeof recordAudit>[0],
+): Promise<Pair> {
+  await BurnPairModel.sequelize!.transaction(async (transaction) => {
+    const row = await BurnPairModel.findOne({
+      where: { id: pairId, labId },
+      lock: transaction.LOCK.UPDATE,
+      transaction,
+    });
+    if (!row) throw AppError.notFound('No such burn test in this lab.');
+    if (!from(row.status)) throw new AppError(409, 'invalid_transition', refusal);
+    await row.update(changes, { transaction });
+    await recordAudit(audit, transaction);
   });
-  await recordAudit({ action: 'pair_signed_off', labId, actorId: userId, detail: { pairId } });
   return getPair(labId, pairId);
 }
 
-export async function returnPair(
+export function submitPair(labId: string, pairId: string, userId: string): Promise<Pair> {
+  return movePair(
+    labId,
+    pairId,
+    (status) => status === 'draft' || status === 'returned',
+    'Only a draft or returned test can be submitted.',
+    { status: 'submitted', submittedAt: new Date(), submittedBy: userId },
+    { action: 'pair_submitted', labId, actorId: userId, detail: { pairId } },
+  );
+}
+
+export function signOffPair(labId: string, pairId: string, userId: string): Promise<Pair> {
+  return movePair(
+    labId,
+    pairId,
+    (status) => status === 'submitted',
+    'Only a submitted test can be signed off.',
+    { status: 'signed_off', signedOffAt: new Date(), signedOffBy: userId, reviewComment: null },
+    { action: 'pair_signed_off', labId, actorId: userId, detail: { pairId } },
+  );
+}
+
+export function returnPair(
   labId: string,
   pairId: string,
   userId: string,
   comment: string,
 ): Promise<Pair> {
-  const row = await loadPair(labId, pairId);
-  if (row.status !== 'submitted')
-    throw new AppError(409, 'invalid_transition', 'Only a submitted test can be returned.');
-  await row.update({ status: 'returned', reviewComment: comment });
-  await recordAudit({
-    action: 'pair_returned',
+  return movePair(
     labId,
-    actorId: userId,
-    detail: { pairId, comment },
-  });
-  return getPair(labId, pairId);
+    pairId,
+    (status) => status === 'submitted',
+    'Only a submitted test can be returned.',
+    { status: 'returned', reviewComment: comment },
+    { action: 'pair_returned', labId, actorId: userId, detail: { pairId, comment } },
+  );
 }
 
 /** Changes a signed-off measurement: the reason and the old and new values go into the history. */

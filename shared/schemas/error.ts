@@ -5,6 +5,7 @@ export const errorCodes = [
   'invalid_request',
   'malformed_json',
   'payload_too_large',
+  'unsupported_media_type',
   'not_found',
   'internal',
   'unavailable',

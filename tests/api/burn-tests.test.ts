@@ -75,6 +75,35 @@ describe('POST /api/labs/:labId/pairs/:pairId/marks', () => {
     expect(res.status).toBe(400);
     expect(res.body.error.fields[0].path).toBe('marks.0.specimenId');
   });
+
+  // Found by the hostile-input tests: an undo naming any id at all used to be stored.
+  it('returns 400 when an undo names a mark of another test, and stores nothing', async () => {
+    const { lead, tech } = await lab();
+    const other = await sessionWithPair(lead.labId, tech.email);
+    const { pair, treatedId } = await sessionWithPair(lead.labId, tech.email);
+    const elsewhere = mark(other.treatedId, 'flame_applied', 0);
+    const post = (pairId: string, marks: object[]) =>
+      request(t.app)
+        .post(`/api/labs/${lead.labId}/pairs/${pairId}/marks`)
+        .set(bearer(tech.token))
+        .send({ marks });
+    expect((await post(other.pair.id, [elsewhere])).status).toBe(200);
+    const applied = mark(treatedId, 'flame_applied', 0);
+    const res = await post(pair.id, [
+      applied,
+      mark(treatedId, 'undo', 10, { undoes: elsewhere.id }),
+    ]);
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual([
+      { path: 'marks.1.undoes', message: 'Names no mark of this test' },
+    ]);
+    const sameRequest = await post(pair.id, [
+      applied,
+      mark(treatedId, 'undo', 10, { undoes: applied.id }),
+    ]);
+    expect(sameRequest.status).toBe(200);
+    expect(pairSchema.parse(sameRequest.body).lanes[1]!.marks).toHaveLength(2);
+  });
 });
 
 describe('review and sign-off', () => {
@@ -177,6 +206,23 @@ describe('review and sign-off', () => {
       'submitted',
     );
   });
+
+  it('lets only one of two reviewers acting at once move a test, with one history entry', async () => {
+    const { lead, tech, reviewer } = await lab();
+    const { pair } = await sessionWithPair(lead.labId, tech.email);
+    const base = `/api/labs/${lead.labId}/pairs/${pair.id}`;
+    await request(t.app).post(`${base}/submit`).set(bearer(tech.token));
+    const [signOff, giveBack] = await Promise.all([
+      request(t.app).post(`${base}/sign-off`).set(bearer(lead.token)),
+      request(t.app)
+        .post(`${base}/return`)
+        .set(bearer(reviewer.token))
+        .send({ comment: 'Redo it' }),
+    ]);
+    expect([signOff.status, giveBack.status].sort()).toEqual([200, 409]);
+    const after = await request(t.app).get(base).set(bearer(tech.token));
+    expect(after.body.history.map((h: { action: string }) => h.action)).toHaveLength(2);
+  });
 });
 
 describe('POST /api/labs/:labId/pairs/:pairId/photos', () => {
@@ -252,6 +298,23 @@ describe('POST /api/labs/:labId/pairs/:pairId/photos', () => {
       });
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe('payload_too_large');
+    expect(await PhotoModel.count({ where: { pairId: pair.id } })).toBe(0);
+  });
+
+  // Found by the hostile-input tests: form fields the route does not know used to be dropped.
+  it('returns 400 naming a form field it does not know, and stores nothing', async () => {
+    const { lead, tech } = await lab();
+    const { pair, treatedId } = await sessionWithPair(lead.labId, tech.email);
+    const res = await request(t.app)
+      .post(`/api/labs/${lead.labId}/pairs/${pair.id}/photos`)
+      .set(bearer(tech.token))
+      .field('clientId', randomUUID())
+      .field('specimenId', treatedId)
+      .field('stage', 'before')
+      .field('labId', randomUUID())
+      .attach('photo', await jpeg(), { filename: 'p.jpg', contentType: 'image/jpeg' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual([{ path: 'labId', message: 'Unknown field' }]);
     expect(await PhotoModel.count({ where: { pairId: pair.id } })).toBe(0);
   });
 });

@@ -62,3 +62,37 @@ describe('validate + errorHandler', () => {
     expect(logged).toHaveLength(1);
   });
 });
+
+// Found by the hostile-input tests: each of these used to be accepted (and stored) or a 500.
+describe('validate: what a schema alone lets through', () => {
+  it('answers 400 naming a field the schema does not know, such as isAdmin or __proto__', async () => {
+    const res = await request(appWith([]))
+      .post('/things')
+      .set('Content-Type', 'application/json')
+      .send('{"name":"Muslin","grams":2,"isAdmin":true,"__proto__":{"x":1}}');
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual([
+      { path: 'isAdmin', message: 'Unknown field' },
+      { path: '__proto__', message: 'Unknown field' },
+    ]);
+  });
+
+  it('answers 400 for text with a NUL or half a surrogate pair, which cannot be saved as sent', async () => {
+    for (const name of ['Mus\u0000lin', 'Mus\uD800lin', 'Mus\uDFFFlin']) {
+      const res = await request(appWith([])).post('/things').send({ name, grams: 2 });
+      expect(res.status).toBe(400);
+      expect(res.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['name']);
+    }
+    const emoji = await request(appWith([])).post('/things').send({ name: 'Muslin 🔥', grams: 2 });
+    expect(emoji.status).toBe(200);
+  });
+
+  it('answers 415 for a typed body that is not JSON, rather than reading it as no fields', async () => {
+    const res = await request(appWith([]))
+      .post('/things')
+      .field('name', 'Muslin')
+      .field('grams', '2');
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe('unsupported_media_type');
+  });
+});
