@@ -75,9 +75,11 @@ describe('GET /api/labs/:labId/photos/:photoId', () => {
           .get(`/api/labs/${lead.labId}/photos/${id}${suffix}`)
           .set(bearer(lead.token));
         expect(res.status).toBe(400);
-        expect(res.body.error.fields).toEqual([
-          expect.objectContaining({ path: 'photoId', message: 'Unknown photo' }),
-        ]);
+        expect(res.body.error.fields).toEqual(
+          expect.arrayContaining([
+            expect.objectContaining({ path: 'photoId', message: 'Unknown photo' }),
+          ]),
+        );
         expect(res.text).not.toContain('SECRET-OUTSIDE');
       }
       expect(asked).toEqual([]);
@@ -109,7 +111,9 @@ describe('POST /api/labs/:labId/pairs/:pairId/photos', () => {
       .field('stage', 'after')
       .attach('photo', await jpeg(), { filename: 'after.jpg', contentType: 'image/jpeg' });
     expect(res.status).toBe(400);
-    expect(res.body.error.fields).toEqual([expect.objectContaining({ path: 'clientId' })]);
+    expect(res.body.error.fields).toEqual(
+      expect.arrayContaining([expect.objectContaining({ path: 'clientId' })]),
+    );
     expect(asked).toEqual([]);
   });
 
