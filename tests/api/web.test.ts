@@ -34,6 +34,7 @@ describe('the web app', () => {
   const webDir = webDirWith({
     'index.html': '<!doctype html><title>Quenchbook</title>',
     '_expo/static/js/web/entry-abc.js': 'console.log(1)',
+    '_expo/static/js/web/big-abc.js': `/* ${'x'.repeat(20_000)} */ console.log(2)`,
     'canvaskit.wasm': '\0asm',
   });
 
@@ -48,6 +49,18 @@ describe('the web app', () => {
     const res = await request(appFor(webDir)).get('/_expo/static/js/web/entry-abc.js');
     expect(res.status).toBe(200);
     expect(res.headers['cache-control']).toContain('immutable');
+  });
+
+  it('sends bundles gzip-compressed to browsers that accept it, byte for byte the same', async () => {
+    const res = await request(appFor(webDir))
+      .get('/_expo/static/js/web/big-abc.js')
+      .set('Accept-Encoding', 'gzip');
+    expect(res.headers['content-encoding']).toBe('gzip');
+    expect(res.text).toBe(`/* ${'x'.repeat(20_000)} */ console.log(2)`);
+    const plain = await request(appFor(webDir))
+      .get('/_expo/static/js/web/big-abc.js')
+      .set('Accept-Encoding', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
   });
 
   it('serves WebAssembly as application/wasm', async () => {
