@@ -291,7 +291,7 @@ export const validRequests: Record<string, Builder> = {
   }),
   'POST /api/labs/{labId}/pair-imports/preview': (a) => ({
     params: lab(a),
-    body: pairsFile(a.recipeName),
+    body: pairsFile(a.importRecipeName),
   }),
   'POST /api/labs/{labId}/pair-imports/{importId}/accept': (a) => ({
     params: { ...lab(a), importId: a.importId },

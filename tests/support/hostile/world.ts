@@ -35,7 +35,8 @@ export type LabWorld = {
   chemicalId: string;
   boricId: string;
   recipeId: string;
-  recipeName: string;
+  /** A recipe no write route renames or revises: the one the pairs files name. */
+  importRecipeName: string;
   revisionId: string;
   batchId: string;
   spareBatchId: string;
@@ -158,7 +159,16 @@ export async function makeLabWorld(t: TestApp, name: string): Promise<LabWorld> 
     { clientId: randomUUID(), specimenId: draft.controlId, stage: 'before' },
     await smallJpeg(),
   );
-  const pairsImport = () => previewImport(labId, userId, 'world.csv', pairsFile(recipe.name, 2));
+  const importRecipe = await createRecipe(labId, userId, {
+    name: `Imported recipe ${randomUUID().slice(0, 8)}`,
+    substrate: 'cotton',
+    ingredients: [{ chemicalId: chemical.id, amount: 5, unit: 'g_per_100g_water' }],
+    mixingTempC: 30,
+    soakMinutes: 10,
+    dryingMethod: 'air',
+  });
+  const pairsImport = () =>
+    previewImport(labId, userId, 'world.csv', pairsFile(importRecipe.name, 2));
   const [toAcceptImport, spareImport] = [await pairsImport(), await pairsImport()];
   const boric = await ChemicalModel.findOne({ where: { labId: null, referenceKey: 'boric-acid' } });
   return {
@@ -171,7 +181,7 @@ export async function makeLabWorld(t: TestApp, name: string): Promise<LabWorld> 
     chemicalId: chemical.id,
     boricId: boric!.id,
     recipeId: recipe.id,
-    recipeName: recipe.name,
+    importRecipeName: importRecipe.name,
     revisionId: recipe.current.id,
     batchId: batch.id,
     spareBatchId: spare.batch.id,
