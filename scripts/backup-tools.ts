@@ -21,7 +21,13 @@ export type Manifest = {
   source: string;
   pgDump: string;
   figures: DatabaseFigures;
-  photos: { files: number };
+  /**
+   * A folder of photos is packed beside the dump; a bucket is not copied: its own versioning or
+   * replication backs it up, and the manifest says which bucket the dump's photo rows point into.
+   * (Manifests written before the bucket was an option have `{ files }` only: a folder.)
+   */
+  photos:
+    { store?: 'disk'; files: number } | { store: 's3'; bucket: string; endpoint: string | null };
 };
 
 /**

@@ -1,6 +1,6 @@
 import { existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { loadConfig } from '../server/config';
+import { loadConfig, type S3Config } from '../server/config';
 import { PHOTO_KEY_PATTERN } from '../server/photos/store';
 import {
   appDatabase,
@@ -21,7 +21,8 @@ import { ClusterError } from './pg-cluster';
 
 // npm run db:backup [-- --out <folder>]
 // The app's database (DATABASE_URL, or the private cluster) as a pg_dump archive, the photos
-// folder as a tar beside it, and a manifest with every table's row count and checksum.
+// folder as a tar beside it (or, for photos in S3, the bucket named in the manifest), and a
+// manifest with every table's row count and checksum.
 
 function outFolder(dataDir: string): string {
   const i = process.argv.indexOf('--out');
@@ -32,6 +33,30 @@ function outFolder(dataDir: string): string {
   }
   const stamp = new Date().toISOString().replace(/[:.]/g, '-');
   return path.join(dataDir, 'backups', stamp);
+}
+
+/**
+ * Packs the photos folder. After the dump: a photo's file is written before its row, so every
+ * photo row in the dump has its file by now. Half-written temp files (dot names) stay out.
+ */
+async function packPhotos(dataDir: string, dir: string): Promise<Manifest['photos']> {
+  const photosDir = path.join(dataDir, 'photos');
+  const photos = existsSync(photosDir)
+    ? readdirSync(photosDir).filter((f) => PHOTO_KEY_PATTERN.test(f))
+    : [];
+  const tarFile = path.join(dir, PHOTOS_FILE);
+  await runTar(
+    existsSync(photosDir)
+      ? ['-cf', tarFile, '-C', dataDir, '--exclude=photos/.*', 'photos']
+      : ['-cf', tarFile, '--files-from=/dev/null'],
+  );
+  return { store: 'disk', files: photos.length };
+}
+
+/** Photos in a bucket are not copied: the object store's versioning or replication keeps them. */
+function bucketNote(s3: S3Config): Manifest['photos'] {
+  const endpoint = s3.endpoint ? new URL(s3.endpoint).origin : null;
+  return { store: 's3', bucket: s3.bucket, endpoint };
 }
 
 async function main(): Promise<void> {
@@ -63,30 +88,25 @@ async function main(): Promise<void> {
       await client.end();
     }
 
-    // After the dump: a photo's file is written before its row, so every photo row in the dump
-    // has its file by now. Half-written temp files (dot names) stay out.
-    const photosDir = path.join(config.dataDir, 'photos');
-    const photos = existsSync(photosDir)
-      ? readdirSync(photosDir).filter((f) => PHOTO_KEY_PATTERN.test(f))
-      : [];
-    const tarFile = path.join(dir, PHOTOS_FILE);
-    await runTar(
-      existsSync(photosDir)
-        ? ['-cf', tarFile, '-C', config.dataDir, '--exclude=photos/.*', 'photos']
-        : ['-cf', tarFile, '--files-from=/dev/null'],
-    );
-
+    const photos =
+      config.photos.kind === 's3'
+        ? bucketNote(config.photos)
+        : await packPhotos(config.dataDir, dir);
     const manifest: Manifest = {
       createdAt: new Date().toISOString(),
       appVersion: config.version,
       source: database.label,
       pgDump: toolVersion(dumpTool),
       figures,
-      photos: { files: photos.length },
+      photos,
     };
     writeFileSync(path.join(dir, MANIFEST_FILE), `${JSON.stringify(manifest, null, 2)}\n`);
     printFigures(`Backed up ${database.label}`, figures);
-    console.log(`  photo files ${photos.length}`);
+    console.log(
+      photos.store === 's3'
+        ? `  photos: not copied, they stay in bucket ${photos.bucket} (backed up by its own versioning or replication)`
+        : `  photo files ${photos.files}`,
+    );
     console.log(`Backup written to ${dir}`);
   } finally {
     database.release();

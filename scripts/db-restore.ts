@@ -20,18 +20,37 @@ import { ClusterError } from './pg-cluster';
 
 // npm run db:restore -- <backup folder> [--force]
 // Restores a db:backup folder into the app's database (DATABASE_URL, or the private cluster) and
-// its photos folder, then checks the row counts and checksum against the backup's manifest.
+// its photos folder (photos in a bucket were not copied: the manifest names the bucket), then
+// checks the row counts and checksum against the backup's manifest.
 // A database with tables, or a photos folder with files, is left alone unless --force is given.
 
 function readManifest(dir: string): Manifest {
   const file = path.join(dir, MANIFEST_FILE);
   if (!existsSync(file))
     throw new BackupError(`${dir} is not a backup folder: no ${MANIFEST_FILE}.`);
-  for (const part of [DUMP_FILE, PHOTOS_FILE]) {
+  const manifest = JSON.parse(readFileSync(file, 'utf8')) as Manifest;
+  // Photos in a bucket are not in the backup, so it has no photos.tar.
+  const parts = manifest.photos.store === 's3' ? [DUMP_FILE] : [DUMP_FILE, PHOTOS_FILE];
+  for (const part of parts) {
     if (!existsSync(path.join(dir, part)))
       throw new BackupError(`The backup is incomplete: ${part} is missing.`);
   }
-  return JSON.parse(readFileSync(file, 'utf8')) as Manifest;
+  return manifest;
+}
+
+/** Unpacks the backup's photos; a folder that had files is kept beside, renamed. */
+async function restorePhotos(dir: string, dataDir: string, photosDir: string, present: number) {
+  if (existsSync(photosDir)) {
+    if (present > 0) {
+      const aside = `${photosDir}.before-restore-${new Date().toISOString().replace(/[:.]/g, '-')}`;
+      renameSync(photosDir, aside);
+      console.log(`The photos that were there are kept in ${aside}`);
+    } else {
+      rmSync(photosDir, { recursive: true });
+    }
+  }
+  mkdirSync(dataDir, { recursive: true });
+  await runTar(['-xf', path.join(dir, PHOTOS_FILE), '-C', dataDir]);
 }
 
 async function main(): Promise<void> {
@@ -52,7 +71,8 @@ async function main(): Promise<void> {
     const client = await connect(database.url);
     try {
       const present = await figuresWith(client);
-      const photoFiles = existsSync(photosDir) ? readdirSync(photosDir).length : 0;
+      const inBucket = manifest.photos.store === 's3';
+      const photoFiles = !inBucket && existsSync(photosDir) ? readdirSync(photosDir).length : 0;
       if ((present.tables.length > 0 || photoFiles > 0) && !force) {
         const what = [
           ...(present.tables.length
@@ -81,17 +101,14 @@ async function main(): Promise<void> {
         database.url,
       );
 
-      if (existsSync(photosDir)) {
-        if (photoFiles > 0) {
-          const aside = `${photosDir}.before-restore-${new Date().toISOString().replace(/[:.]/g, '-')}`;
-          renameSync(photosDir, aside);
-          console.log(`The photos that were there are kept in ${aside}`);
-        } else {
-          rmSync(photosDir, { recursive: true });
-        }
+      if (manifest.photos.store === 's3') {
+        console.log(
+          `Photos were not in the backup: they stay in bucket ${manifest.photos.bucket}, ` +
+            "restored (if need be) from the object store's own versions or replica.",
+        );
+      } else {
+        await restorePhotos(dir, config.dataDir, photosDir, photoFiles);
       }
-      mkdirSync(config.dataDir, { recursive: true });
-      await runTar(['-xf', path.join(dir, PHOTOS_FILE), '-C', config.dataDir]);
 
       const restored = await figuresWith(client);
       printFigures(`Restored into ${database.label}`, restored);

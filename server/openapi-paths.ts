@@ -11,6 +11,8 @@ type PathDoc = {
   body?: z.ZodType;
   /** A multipart/form-data body instead of JSON (uploads). */
   multipart?: z.ZodObject;
+  /** A text/csv body (imports): the file itself. */
+  csv?: z.ZodType;
   params?: z.ZodObject;
   query?: z.ZodObject;
   ok: { status: number; schema?: z.ZodType; description: string };
@@ -23,6 +25,8 @@ const errorDescriptions: Record<number, string> = {
   403: 'Signed in, but the role does not allow it, or the CSRF token is missing',
   404: 'No such record in a lab you belong to',
   409: 'Conflicts with the current state (e.g. the last manager)',
+  413: 'The request body is too large',
+  415: 'The body is not of a type this route reads',
   429: 'Too many tries; see Retry-After',
 };
 
@@ -49,6 +53,7 @@ export function documentPath(docs: ApiDocs, d: PathDoc): void {
       ...(d.multipart
         ? { body: { content: { 'multipart/form-data': { schema: d.multipart } } } }
         : {}),
+      ...(d.csv ? { body: { content: { 'text/csv': { schema: d.csv } } } } : {}),
     },
     responses: {
       [d.ok.status]: {

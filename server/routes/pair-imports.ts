@@ -1,6 +1,7 @@
 import express, { Router } from 'express';
 import { labParamsSchema } from '../../shared/schemas/lab';
 import {
+  pairImportFileSchema,
   pairImportParamsSchema,
   pairImportPreviewSchema,
   pairImportQuerySchema,
@@ -27,6 +28,14 @@ export function pairImportsRouter(): Router {
     validate({ query: pairImportQuerySchema }),
     async (req, res) => {
       if (typeof req.body !== 'string') {
+        // JSON or multipart reach this route (other routes read them) but are not a CSV file.
+        if (req.headers['content-type'] && req.is(['text/csv', 'text/plain']) === false) {
+          throw new AppError(
+            415,
+            'unsupported_media_type',
+            'Send the file itself as the request body (Content-Type: text/csv).',
+          );
+        }
         throw new AppError(400, 'invalid_request', 'Send the file as the request body.', [
           { path: 'file', message: 'Send the CSV as the body, with Content-Type text/csv' },
         ]);
@@ -68,12 +77,13 @@ export function registerPairImportDocs(docs: ApiDocs): void {
     access: editor,
     params: labParamsSchema,
     query: pairImportQuerySchema,
+    csv: pairImportFileSchema,
     ok: {
       status: 201,
       schema: pairImportPreviewSchema,
       description: 'Every row with its line, errors by column, and values',
     },
-    errors: [400, 401, 403, 404, 413],
+    errors: [400, 401, 403, 404, 413, 415],
   });
   documentPath(docs, {
     method: 'post',

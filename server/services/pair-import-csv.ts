@@ -27,10 +27,28 @@ function delimiterOf(headerLine: string): string {
   return counts.reduce((best, c) => (c[1] > best[1] ? c : best))[0];
 }
 
+/**
+ * A NUL (every other byte of a UTF-16 file; PostgreSQL cannot store it) or U+FFFD (what a byte
+ * that is not UTF-8 was read as, e.g. from a Windows-1252 export): the file is not UTF-8 text, and
+ * importing it would store something other than what the file says.
+ */
+function assertUtf8Text(text: string): void {
+  const nul = text.indexOf('\u0000');
+  const broken = text.indexOf('\uFFFD');
+  if (nul < 0 && broken < 0) return;
+  const at = nul < 0 ? broken : broken < 0 ? nul : Math.min(nul, broken);
+  const line = text.slice(0, at).split('\n').length;
+  throw badFile(
+    'file',
+    `Line ${line} has ${at === nul ? 'a NUL byte' : 'bytes that are not UTF-8 text'}: save the file as CSV UTF-8`,
+  );
+}
+
 /** Reads a pairs file: header checks for the whole file, line numbers and problems per row. */
 export function readPairsCsv(input: string): PairsCsv {
   // Excel writes a byte-order mark, and a file edited on two systems may mix line ends.
   const text = input.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
+  assertUtf8Text(text);
   const lines: { cells: string[]; line: number; errors: string[] }[] = [];
   let consumed = 0;
   let line = 1;

@@ -314,6 +314,11 @@ export const pairImportQuerySchema = z.object({
     .default('pasted.csv'),
 });
 
+/** The body of a preview: the pairs file itself, UTF-8 text. */
+export const pairImportFileSchema = z
+  .string()
+  .describe('The pairs file as UTF-8 CSV (comma, semicolon or tab separated)');
+
 export const pairImportParamsSchema = z.object({
   labId: z.uuid(),
   importId: z.uuid('Unknown import'),

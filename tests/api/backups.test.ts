@@ -31,10 +31,12 @@ const scratch = mkdtempSync(path.join(os.tmpdir(), 'qb-backup-'));
 const config = loadConfig({ ...process.env, NODE_ENV: 'test' });
 const cluster = testCluster(config);
 const emptyDb = `qb_test_restore_${process.pid}`;
+const bucketDb = `qb_test_restore_s3_${process.pid}`;
 let privateClusterRoot: string | undefined;
 
 afterAll(async () => {
   await dropDatabase(cluster, emptyDb);
+  await dropDatabase(cluster, bucketDb);
   // As root the cluster may live outside the data folder (where the postgres user can write).
   if (privateClusterRoot) rmSync(privateClusterRoot, { recursive: true, force: true });
   rmSync(scratch, { recursive: true, force: true });
@@ -143,4 +145,43 @@ describe('npm run db:backup and db:restore', () => {
       restoreMs: Math.round(intoEmpty.ms),
     });
   }, 240_000);
+
+  it('names the bucket in the manifest instead of packing photos kept in S3', async () => {
+    const source = await databaseChecksum(t.db.sequelize);
+    const out = path.join(scratch, 'bucket');
+    const bucketEnv = {
+      QB_S3_BUCKET: 'qb-photos',
+      QB_S3_ENDPOINT: 'http://127.0.0.1:9/',
+      QB_S3_ACCESS_KEY_ID: 'backup-test',
+      QB_S3_SECRET_ACCESS_KEY: 'backup-test-secret',
+    };
+    const backup = await script('db-backup', ['--out', out], {
+      DATABASE_URL: t.db.url,
+      QB_DATA_DIR: sourceDir,
+      ...bucketEnv,
+    });
+    expect(backup.code).toBe(0);
+    expect(backup.out).toContain('they stay in bucket qb-photos');
+    const manifest = JSON.parse(readFileSync(path.join(out, 'manifest.json'), 'utf8'));
+    expect(manifest.photos).toEqual({
+      store: 's3',
+      bucket: 'qb-photos',
+      endpoint: 'http://127.0.0.1:9',
+    });
+    expect(readdirSync(out).sort()).toEqual(['database.dump', 'manifest.json']);
+    expect(JSON.stringify(manifest)).not.toContain('backup-test-secret');
+
+    // The restore needs no photos.tar then, and leaves the photos folder alone.
+    await ensureDatabase(cluster, bucketDb);
+    const targetDir = mkdtempSync(path.join(scratch, 'bucket-target-'));
+    const restore = await script('db-restore', [out], {
+      DATABASE_URL: databaseUrl(cluster, bucketDb),
+      QB_DATA_DIR: targetDir,
+      ...bucketEnv,
+    });
+    expect(restore.out).toContain('they stay in bucket qb-photos');
+    expect(restore.code).toBe(0);
+    expect((await figuresOf(databaseUrl(cluster, bucketDb))).checksum).toBe(source.checksum);
+    expect(existsSync(path.join(targetDir, 'photos'))).toBe(false);
+  }, 120_000);
 });

@@ -164,18 +164,63 @@ describe('POST /api/labs/:labId/pair-imports/preview', () => {
     ]);
   });
 
-  it('returns 400 when the body is not CSV text, and 413 over 2 MB', async () => {
+  it('returns 415 for a JSON or multipart body, 400 for none, and 413 over 2 MB', async () => {
+    const url = `/api/labs/${labs.a.id}/pair-imports/preview`;
     const json = await request(t.app)
-      .post(`/api/labs/${labs.a.id}/pair-imports/preview`)
+      .post(url)
       .set(bearer(labs.a.technician.token))
       .send({ csv: 'held_at' });
-    expect(json.status).toBe(400);
-    expect(json.body.error.fields).toEqual([
+    expect(json.status).toBe(415);
+    expect(json.body.error.code).toBe('unsupported_media_type');
+    const form = await request(t.app)
+      .post(url)
+      .set(bearer(labs.a.technician.token))
+      .attach('file', Buffer.from(pairsCsv([good()])), 'pairs.csv');
+    expect(form.status).toBe(415);
+    const none = await request(t.app).post(url).set(bearer(labs.a.technician.token));
+    expect(none.status).toBe(400);
+    expect(none.body.error.fields).toEqual([
       { path: 'file', message: 'Send the CSV as the body, with Content-Type text/csv' },
     ]);
     const big = await preview(labs.a, `${pairsCsv([good()])}\n${'x'.repeat(2 * 1024 * 1024)}`);
     expect(big.status).toBe(413);
     expect(big.body.error.code).toBe('payload_too_large');
+  });
+
+  it('returns 400 naming the line when the file is not UTF-8 text, and stores nothing', async () => {
+    const file = pairsCsv([good(), good({ substrate: 'Mousseline écrue' })]);
+    const sent = (bytes: Buffer) =>
+      request(t.app)
+        .post(`/api/labs/${labs.a.id}/pair-imports/preview`)
+        .set(bearer(labs.a.technician.token))
+        .set('Content-Type', 'text/csv')
+        .send(bytes);
+    const pending = await PairImportModel.count();
+    // Windows-1252 (a spreadsheet's "CSV" on many systems), UTF-16 (its "Unicode text"), and a
+    // NUL in an otherwise valid row, which PostgreSQL could not store in the pending import.
+    const latin1 = await sent(Buffer.from(file, 'latin1'));
+    const utf16 = await sent(Buffer.from(`\uFEFF${file}`, 'utf16le'));
+    const nul = await sent(Buffer.from(file.replace('Mousseline', 'Mous\u0000seline')));
+    expect([latin1.status, utf16.status, nul.status]).toEqual([400, 400, 400]);
+    expect(latin1.body.error.fields).toEqual([
+      {
+        path: 'file',
+        message: 'Line 3 has bytes that are not UTF-8 text: save the file as CSV UTF-8',
+      },
+    ]);
+    expect(nul.body.error.fields[0].message).toMatch(/^Line 3 has a NUL byte/);
+    expect(await PairImportModel.count()).toBe(pending);
+    // The same file in UTF-8, or with its charset named, reads well.
+    expect((await sent(Buffer.from(file))).status).toBe(201);
+    const named = await request(t.app)
+      .post(`/api/labs/${labs.a.id}/pair-imports/preview`)
+      .set(bearer(labs.a.technician.token))
+      .set('Content-Type', 'text/csv; charset=windows-1252')
+      .send(Buffer.from(file, 'latin1'));
+    expect(named.status).toBe(201);
+    expect(pairImportPreviewSchema.parse(named.body).rows[1]!.values.substrate).toBe(
+      'Mousseline écrue',
+    );
   });
 });
 

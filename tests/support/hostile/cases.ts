@@ -9,6 +9,7 @@ import {
   type OpenApiDocument,
   type Slot,
 } from './schema-slots';
+import { csvChanges } from './csv';
 import {
   anyJson,
   badFormat,
@@ -45,7 +46,8 @@ export type FileVariant =
 export type Edit =
   | { at: 'body'; path: JsonPath; value: unknown }
   | { at: 'body-root'; value: unknown }
-  | { at: 'raw-body'; contentType: string; text: string; encoding?: string }
+  /** A body as sent; no Content-Type header when contentType is null. */
+  | { at: 'raw-body'; contentType: string | null; text: string | Buffer; encoding?: string }
   | { at: 'param'; name: string; value: string; encoded?: boolean }
   | { at: 'auth'; variant: AuthVariant }
   | { at: 'file'; variant: FileVariant };
@@ -53,7 +55,7 @@ export type Edit =
 export type Change = { kind: string; label: string; edit: Edit; expect: readonly number[] };
 export type HostileCase = { breaking: Change[]; noise: Change[] };
 
-export type BodyKind = 'json' | 'multipart' | 'none';
+export type BodyKind = 'json' | 'multipart' | 'csv' | 'none';
 
 export type RouteShape = {
   doc: OpenApiDocument;
@@ -337,12 +339,18 @@ export function hostileCases(shape: RouteShape): fc.Arbitrary<HostileCase> {
     ...paramChanges(shape),
     ...(shape.authenticated ? [authChanges] : []),
   ];
-  // The file is an upload's biggest attack surface: about a quarter of its cases break it.
+  // The file is an upload's or an import's biggest attack surface: about a quarter of an
+  // upload's cases break the file, and about half of an import's break its CSV body.
+  const csv = shape.bodyKind === 'csv' ? csvChanges(String(shape.exampleBody)) : [];
   const weighted = [
     ...breaking.map((arbitrary) => ({ arbitrary, weight: 3 })),
     ...(shape.bodyKind === 'multipart'
       ? [{ arbitrary: fileChanges, weight: breaking.length }]
       : []),
+    ...csv.map((arbitrary) => ({
+      arbitrary,
+      weight: Math.ceil((3 * breaking.length) / csv.length),
+    })),
   ];
   const noise = noiseChanges(slots);
   return fc.record({

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { checklistItems } from '../../../shared/schemas/burn';
 import { PASSWORD, uniqueEmail } from '../accounts';
+import { pairsFile } from './csv';
 import type { Credentials, LabWorld } from './world';
 
 // For every write route: a valid request against lab A (with every optional field filled, so
@@ -287,5 +288,15 @@ export const validRequests: Record<string, Builder> = {
   }),
   'DELETE /api/labs/{labId}/criteria-profiles/{profileId}': (a) => ({
     params: { ...lab(a), profileId: a.spareProfileId },
+  }),
+  'POST /api/labs/{labId}/pair-imports/preview': (a) => ({
+    params: lab(a),
+    body: pairsFile(a.importRecipeName),
+  }),
+  'POST /api/labs/{labId}/pair-imports/{importId}/accept': (a) => ({
+    params: { ...lab(a), importId: a.importId },
+  }),
+  'DELETE /api/labs/{labId}/pair-imports/{importId}': (a) => ({
+    params: { ...lab(a), importId: a.spareImportId },
   }),
 };

@@ -27,7 +27,7 @@ export type Answer = { status: number; contentType: string; text: string; json: 
 type Built = {
   params: Record<string, { value: string; encoded: boolean }>;
   body: unknown;
-  raw?: { contentType: string; text: string; encoding?: string };
+  raw?: { contentType: string | null; text: string | Buffer; encoding?: string };
   auth: AuthVariant;
   file: FileVariant | 'photo';
 };
@@ -201,6 +201,8 @@ function multipart(fields: unknown, files: FilePart[]): { type: string; data: Bu
   return { type: `multipart/form-data; boundary=${boundary}`, data: Buffer.concat(chunks) };
 }
 
+const bytesOf = (text: string | Buffer) => (typeof text === 'string' ? Buffer.from(text) : text);
+
 const agent = new http.Agent({ keepAlive: true, maxSockets: 4 });
 
 /** Sends the base request with the case's changes applied (noise first, then breaking). */
@@ -218,8 +220,10 @@ export function sendCase(baseUrl: string, base: BaseRequest, c: HostileCase): Pr
     const p = built.params[name]!;
     return p.encoded ? p.value : encodeURIComponent(p.value);
   });
-  let payload: { type: string; data: Buffer } | undefined;
-  if (built.raw) payload = { type: built.raw.contentType, data: Buffer.from(built.raw.text) };
+  let payload: { type: string | null; data: Buffer } | undefined;
+  if (built.raw) payload = { type: built.raw.contentType, data: bytesOf(built.raw.text) };
+  else if (base.bodyKind === 'csv' && typeof built.body === 'string')
+    payload = { type: 'text/csv', data: Buffer.from(built.body) };
   else if (base.bodyKind === 'multipart')
     payload = multipart(built.body, fileParts(built.file, base.photo!));
   else if (base.bodyKind === 'json' && built.body !== REMOVE) {
@@ -228,9 +232,8 @@ export function sendCase(baseUrl: string, base: BaseRequest, c: HostileCase): Pr
   const headers: Record<string, string> = {
     Accept: 'application/json',
     ...authHeaders(built.auth, base.credentials),
-    ...(payload
-      ? { 'Content-Type': payload.type, 'Content-Length': String(payload.data.length) }
-      : {}),
+    ...(payload?.type ? { 'Content-Type': payload.type } : {}),
+    ...(payload ? { 'Content-Length': String(payload.data.length) } : {}),
     ...(built.raw?.encoding ? { 'Content-Encoding': built.raw.encoding } : {}),
   };
   return new Promise((resolve, reject) => {

@@ -16,11 +16,13 @@ import { copyPreset } from '../../../server/services/criteria-profiles';
 import { createInvitation } from '../../../server/services/invitations';
 import { addPhoto } from '../../../server/services/photos';
 import { addSpecimen, createBatch } from '../../../server/services/batches';
+import { previewImport } from '../../../server/services/pair-imports';
 import { createRecipe } from '../../../server/services/recipes';
 import type { OutgoingMail } from '../../../server/mail/types';
 import { memberWithRole, signUpPerson, uniqueEmail, PASSWORD } from '../accounts';
 import type { TestApp } from '../app';
 import { sessionWithPair, treatedSpecimen } from '../burn';
+import { pairsFile } from './csv';
 
 /** One lab's records, made through the services as its manager: the targets of every write. */
 export type LabWorld = {
@@ -33,6 +35,8 @@ export type LabWorld = {
   chemicalId: string;
   boricId: string;
   recipeId: string;
+  /** A recipe no write route renames or revises: the one the pairs files name. */
+  importRecipeName: string;
   revisionId: string;
   batchId: string;
   spareBatchId: string;
@@ -45,6 +49,9 @@ export type LabWorld = {
   profileId: string;
   spareProfileId: string;
   photoId: string;
+  /** Previewed pairs files waiting in the lab: one to accept, one to discard. */
+  importId: string;
+  spareImportId: string;
 };
 
 export type World = { a: LabWorld; b: LabWorld };
@@ -152,6 +159,17 @@ export async function makeLabWorld(t: TestApp, name: string): Promise<LabWorld> 
     { clientId: randomUUID(), specimenId: draft.controlId, stage: 'before' },
     await smallJpeg(),
   );
+  const importRecipe = await createRecipe(labId, userId, {
+    name: `Imported recipe ${randomUUID().slice(0, 8)}`,
+    substrate: 'cotton',
+    ingredients: [{ chemicalId: chemical.id, amount: 5, unit: 'g_per_100g_water' }],
+    mixingTempC: 30,
+    soakMinutes: 10,
+    dryingMethod: 'air',
+  });
+  const pairsImport = () =>
+    previewImport(labId, userId, 'world.csv', pairsFile(importRecipe.name, 2));
+  const [toAcceptImport, spareImport] = [await pairsImport(), await pairsImport()];
   const boric = await ChemicalModel.findOne({ where: { labId: null, referenceKey: 'boric-acid' } });
   return {
     labId,
@@ -163,6 +181,7 @@ export async function makeLabWorld(t: TestApp, name: string): Promise<LabWorld> 
     chemicalId: chemical.id,
     boricId: boric!.id,
     recipeId: recipe.id,
+    importRecipeName: importRecipe.name,
     revisionId: recipe.current.id,
     batchId: batch.id,
     spareBatchId: spare.batch.id,
@@ -180,6 +199,8 @@ export async function makeLabWorld(t: TestApp, name: string): Promise<LabWorld> 
     profileId: profile.id,
     spareProfileId: spareProfile.id,
     photoId: photo.id,
+    importId: toAcceptImport.importId,
+    spareImportId: spareImport.importId,
   };
 }
 
@@ -208,5 +229,7 @@ export function idsOf(lab: LabWorld): string[] {
     lab.profileId,
     lab.spareProfileId,
     lab.photoId,
+    lab.importId,
+    lab.spareImportId,
   ];
 }
