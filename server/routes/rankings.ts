@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import Papa from 'papaparse';
 import { z } from 'zod';
+import { FORMULA_START } from '../../shared/csv/formulae';
 import { criteriaPresets } from '../../shared/criteria/presets';
 import { labParamsSchema } from '../../shared/schemas/lab';
 import { rankingQuerySchema, rankingSchema } from '../../shared/schemas/ranking';
@@ -87,6 +88,7 @@ export function rankingsRouter(): Router {
               : `fail: ${t.verdict.failed.join('; ') || t.verdict.notEnough}`
             : '',
         })),
+        { escapeFormulae: FORMULA_START },
       );
       res.type('text/csv').attachment('ranking.csv').send(csv);
     },
@@ -131,6 +133,7 @@ export function rankingsRouter(): Router {
             treated_mass_loss_pct: round(r.treated.massLossPct),
           };
         }),
+        { escapeFormulae: FORMULA_START },
       );
       res.type('text/csv').attachment('pairs.csv').send(csv);
     },

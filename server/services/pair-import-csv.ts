@@ -1,3 +1,4 @@
+import { unescapeFormula } from '../../shared/csv/formulae';
 import Papa from 'papaparse';
 import {
   ignoredExportColumns,
@@ -91,7 +92,7 @@ export function readPairsCsv(input: string): PairsCsv {
       const cells = Object.fromEntries(
         pairImportColumnNames.map((name) => {
           const at = header.indexOf(name);
-          return [name, at < 0 ? '' : (l.cells[at] ?? '')];
+          return [name, at < 0 ? '' : unescapeFormula(l.cells[at] ?? '')];
         }),
       );
       return { line: l.line, cells, problems };

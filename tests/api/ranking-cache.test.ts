@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
+import Papa from 'papaparse';
 import request from 'supertest';
 import { LabModel } from '../../server/models';
 import { rankingSchema } from '../../shared/schemas/ranking';
@@ -188,5 +189,21 @@ describe('GET /api/labs/:labId/rankings (served again until the data changes)', 
       .send({ specimenId: a.treatedId, changes: { charLengthMm: 61 }, reason: 'Re-measured it' });
     expect(await version(b.labId)).toBe(bBefore);
     expect((await ranking(b.labId, b.lead.token))[0]!.treatedChar.mean).toBe(70);
+  });
+});
+
+describe('GET /api/labs/:labId/pairs.csv and rankings.csv', () => {
+  it('puts an apostrophe before a name a spreadsheet would run as a formula', async () => {
+    const { lead, labId } = await labWithSignedOffPair(60);
+    const [before] = await ranking(labId, lead.token);
+    const formula = '=HYPERLINK("http://x.invalid","open")';
+    await LabModel.sequelize!.query('UPDATE recipes SET name = :formula WHERE id = :id', {
+      replacements: { formula, id: before!.recipeId },
+    });
+    for (const file of ['pairs.csv', 'rankings.csv']) {
+      const res = await request(t.app).get(`/api/labs/${labId}/${file}`).set(bearer(lead.token));
+      const rows = Papa.parse<Record<string, string>>(res.text, { header: true }).data;
+      expect(rows[0]!.recipe).toBe(`'${formula}`);
+    }
   });
 });
