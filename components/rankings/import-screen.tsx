@@ -46,7 +46,10 @@ function show(value: string | number | boolean | null | undefined, unit = ''): s
 
 function summary(row: PairImportPreviewRow) {
   const v = row.values;
-  const held = typeof v.held_at === 'string' && row.ok ? v.held_at.slice(0, 10) : show(v.held_at);
+  const held =
+    typeof v.held_at === 'string' && /^\d{4}-\d{2}-\d{2}/.test(v.held_at)
+      ? v.held_at.slice(0, 10)
+      : show(v.held_at);
   return {
     held,
     treatment: `${show(v.recipe)} rev. ${show(v.revision)} · ${show(v.substrate)}`,
