@@ -1,5 +1,5 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
+import type { BrowserContext, Page } from 'playwright-core';
+import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople } from '../../fixtures/demo';
 import {
   BatchModel,
   BurnPairModel,
@@ -8,12 +8,10 @@ import {
   LabModel,
   RecipeModel,
 } from '../../server/models';
-import { ensureWebBuild } from '../../scripts/web-build';
-import { startTestServer } from '../support/app';
 import { seriousViolations, tabThrough } from '../support/axe';
-import { launchBrowser, viewports } from '../support/browser';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { sessionWithPair } from '../support/burn';
-import { freshDatabase, type TestDatabase } from '../support/db';
 import { signInThroughUi } from '../support/ui';
 
 // axe-core on every main screen at phone size (390×844) with the demo data: no serious or
@@ -22,9 +20,8 @@ import { signInThroughUi } from '../support/ui';
 // impact it gives each finding; accessible names as axe-core computes them.
 jest.setTimeout(300_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
+const env = browserTestEnv({ demo: true });
+
 let signedIn: BrowserContext;
 let page: Page;
 type Ids = Record<
@@ -64,12 +61,6 @@ const manager = demoPeople.find((p) => p.role === 'manager')!;
 const technician = demoPeople.find((p) => p.role === 'technician')!;
 
 beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  await loadDemoData(server.deps);
-  browser = await launchBrowser();
-
   const lab = await LabModel.findOne({ where: { name: DEMO_LAB_NAME } });
   const labId = lab!.id;
   const recipe = await RecipeModel.findOne({ where: { labId, name: 'Muslin drape soak' } });
@@ -89,21 +80,15 @@ beforeAll(async () => {
     chemical: chemical!.id,
   };
 
-  signedIn = await browser.newContext({ viewport: viewports.phone });
+  signedIn = await env.browser.newContext({ viewport: viewports.phone });
   page = await signedIn.newPage();
-  await signInThroughUi(page, server.url, manager.email, DEMO_PASSWORD);
+  await signInThroughUi(page, env.server.url, manager.email, DEMO_PASSWORD);
   await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
 });
 
 /** Opens a screen and waits until its title is drawn and its data has arrived. */
 async function open(target: Page, path: string): Promise<void> {
-  await target.goto(`${server.url}${path}`);
+  await target.goto(`${env.server.url}${path}`);
   await target
     .locator('[data-testid="section-title"], [data-testid="screen-title"]')
     .first()
@@ -124,7 +109,7 @@ describe('every main screen at 390×844', () => {
   it.each(['sign-in', 'sign-up', 'forgot-password'])(
     'has no serious or critical axe violations on /%s (signed out)',
     async (path) => {
-      const context = await browser.newContext({ viewport: viewports.phone });
+      const context = await env.browser.newContext({ viewport: viewports.phone });
       const signedOut = await context.newPage();
       await open(signedOut, `/${path}`);
       expectNoViolations(path, await seriousViolations(signedOut));
@@ -153,7 +138,7 @@ describe('the keyboard at 390×844', () => {
     let target = page;
     let context: BrowserContext | undefined;
     if (where.startsWith('/')) {
-      context = await browser.newContext({ viewport: viewports.phone });
+      context = await env.browser.newContext({ viewport: viewports.phone });
       target = await context.newPage();
     }
     await open(target, path);

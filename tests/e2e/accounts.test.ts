@@ -1,9 +1,6 @@
-import type { Browser } from 'playwright-core';
-import { ensureWebBuild } from '../../scripts/web-build';
 import { PASSWORD, uniqueEmail } from '../support/accounts';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { linkIn, waitForMail } from '../support/mail';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
@@ -11,34 +8,23 @@ import { seedLab, signInThroughUi } from '../support/ui';
 
 jest.setTimeout(240_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
+const env = browserTestEnv();
+
 let mailbox: string;
 
 beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  mailbox = server.deps.config.mail.fakeSmtp!.mailboxDir;
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
+  mailbox = env.server.deps.config.mail.fakeSmtp!.mailboxDir;
 });
 
 describe.each(Object.entries(viewports))('accounts at %s size', (name, viewport) => {
   it('signs up, invites a second person who joins from the e-mailed link with the given role', async () => {
-    const lead = await browser.newContext({ viewport });
+    const lead = await env.browser.newContext({ viewport });
     const page = await lead.newPage();
     const errors = collectPageErrors(page);
     const leadEmail = uniqueEmail('founder');
     const labName = `Muslin trials ${name}`;
 
-    await page.goto(`${server.url}/sign-up`);
+    await page.goto(`${env.server.url}/sign-up`);
     await page.getByTestId('field-displayName').fill('Frida Founder');
     await page.getByTestId('field-email').fill(leadEmail);
     await page.getByTestId('field-password').fill(PASSWORD);
@@ -59,9 +45,9 @@ describe.each(Object.entries(viewports))('accounts at %s size', (name, viewport)
 
     const mail = await waitForMail(mailbox, { to: invitee, subject: /invit/i });
     const link = linkIn(mail, '/invitations/');
-    expect(link.startsWith(server.url)).toBe(true);
+    expect(link.startsWith(env.server.url)).toBe(true);
 
-    const second = await browser.newContext({ viewport });
+    const second = await env.browser.newContext({ viewport });
     const page2 = await second.newPage();
     const errors2 = collectPageErrors(page2);
     await page2.goto(link);
@@ -100,11 +86,11 @@ describe.each(Object.entries(viewports))('accounts at %s size', (name, viewport)
   });
 
   it('shows a viewer the members but no controls to change anything', async () => {
-    const seeded = await seedLab(server.deps, `Viewer lab ${name}`);
-    const context = await browser.newContext({ viewport });
+    const seeded = await seedLab(env.server.deps, `Viewer lab ${name}`);
+    const context = await env.browser.newContext({ viewport });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, seeded.people.viewer.email);
+    await signInThroughUi(page, env.server.url, seeded.people.viewer.email);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
     await page.getByTestId('nav-lab').click();
     await page.getByTestId(`role-text-${seeded.people.manager.email}`).waitFor();
@@ -120,11 +106,11 @@ describe.each(Object.entries(viewports))('accounts at %s size', (name, viewport)
 
 describe('password reset in the browser', () => {
   it('follows the e-mailed link to a new password and signs in with it', async () => {
-    const seeded = await seedLab(server.deps, 'Reset lab');
+    const seeded = await seedLab(env.server.deps, 'Reset lab');
     const email = seeded.people.technician.email;
-    const context = await browser.newContext({ viewport: viewports.phone });
+    const context = await env.browser.newContext({ viewport: viewports.phone });
     const page = await context.newPage();
-    await page.goto(`${server.url}/sign-in`);
+    await page.goto(`${env.server.url}/sign-in`);
     await page.getByTestId('link-forgot').click();
     await page.getByTestId('field-email').fill(email);
     await page.getByTestId('reset-request-submit').click();
@@ -136,16 +122,16 @@ describe('password reset in the browser', () => {
     await page.getByTestId('reset-confirm-submit').click();
     await page.getByTestId('reset-done').waitFor();
 
-    await signInThroughUi(page, server.url, email, 'a brand new passphrase');
+    await signInThroughUi(page, env.server.url, email, 'a brand new passphrase');
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
     await context.close();
   });
 
   it('shows the wrong-password message in a banner without losing the typed address', async () => {
-    const seeded = await seedLab(server.deps, 'Banner lab');
-    const context = await browser.newContext({ viewport: viewports.phone });
+    const seeded = await seedLab(env.server.deps, 'Banner lab');
+    const context = await env.browser.newContext({ viewport: viewports.phone });
     const page = await context.newPage();
-    await signInThroughUi(page, server.url, seeded.people.viewer.email, 'not the password');
+    await signInThroughUi(page, env.server.url, seeded.people.viewer.email, 'not the password');
     await page
       .getByTestId('form-banner')
       .getByText('That e-mail address and password do not match an account.')

@@ -1,42 +1,24 @@
 import { randomUUID } from 'node:crypto';
-import type { Browser } from 'playwright-core';
 import { ChemicalModel, UserModel } from '../../server/models';
 import { createBatch } from '../../server/services/batches';
 import { createRecipe, updateRecipe } from '../../server/services/recipes';
-import { ensureWebBuild } from '../../scripts/web-build';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
 import { seedLab, signInThroughUi } from '../support/ui';
 
 jest.setTimeout(240_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
-
-beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
-});
+const env = browserTestEnv();
 
 describe.each(Object.entries(viewports))('preparing a soak batch at %s size', (name, viewport) => {
   it('writes a recipe, prepares 5 L, flags an out-of-tolerance weigh-in, and logs specimens with their add-on', async () => {
-    const seeded = await seedLab(server.deps, `Batch lab ${name}`);
-    const context = await browser.newContext({ viewport });
+    const seeded = await seedLab(env.server.deps, `Batch lab ${name}`);
+    const context = await env.browser.newContext({ viewport });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, seeded.people.technician.email);
+    await signInThroughUi(page, env.server.url, seeded.people.technician.email);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
 
     // The recipe: 6 g borax decahydrate + 4 g boric acid per 100 g water.
@@ -116,7 +98,7 @@ describe.each(Object.entries(viewports))('preparing a soak batch at %s size', (n
 
 describe('chemicals, recipe history and the batch sheet', () => {
   it('lists the chemicals, shows two revisions side by side, and prints a sheet with the cautions', async () => {
-    const seeded = await seedLab(server.deps, 'Sheet lab');
+    const seeded = await seedLab(env.server.deps, 'Sheet lab');
     const boric = await ChemicalModel.findOne({
       where: { labId: null, referenceKey: 'boric-acid' },
     });
@@ -140,10 +122,10 @@ describe('chemicals, recipe history and the batch sheet', () => {
     });
     await updateRecipe(seeded.labId, recipe.id, manager!.id, { ...input, mixingTempC: 50 });
 
-    const context = await browser.newContext({ viewport: viewports.wide });
+    const context = await env.browser.newContext({ viewport: viewports.wide });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, seeded.people.viewer.email);
+    await signInThroughUi(page, env.server.url, seeded.people.viewer.email);
     await page.getByTestId('nav-recipes').click();
     await page.getByTestId('link-chemicals').click();
     await page.getByTestId('section-title').filter({ hasText: 'Chemicals' }).waitFor();
@@ -151,13 +133,13 @@ describe('chemicals, recipe history and the batch sheet', () => {
     expect(await page.getByTestId('add-chemical').count()).toBe(0);
     await screenshot(page, 'chemicals-wide');
 
-    await page.goto(`${server.url}/labs/${seeded.labId}/recipes/${recipe.id}/history`);
+    await page.goto(`${env.server.url}/labs/${seeded.labId}/recipes/${recipe.id}/history`);
     await page.getByTestId('revision-2').waitFor();
     await page.getByTestId('revision-1').waitFor();
     expect(await page.getByTestId('changed-value').count()).toBeGreaterThan(0);
     await screenshot(page, 'recipe-history-wide');
 
-    await page.goto(`${server.url}/labs/${seeded.labId}/batches/${batch.id}/sheet`);
+    await page.goto(`${env.server.url}/labs/${seeded.labId}/batches/${batch.id}/sheet`);
     await expect(page.getByTestId('sheet-code').textContent()).resolves.toBe(batch.code);
     await page
       .getByTestId('sheet-cautions')
@@ -171,13 +153,13 @@ describe('chemicals, recipe history and the batch sheet', () => {
 
 describe('a lab chemical with solubility data', () => {
   it('is added from the library screen and then shows its table', async () => {
-    const seeded = await seedLab(server.deps, 'Own chemical lab');
-    const context = await browser.newContext({ viewport: viewports.phone });
+    const seeded = await seedLab(env.server.deps, 'Own chemical lab');
+    const context = await env.browser.newContext({ viewport: viewports.phone });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, seeded.people.technician.email);
+    await signInThroughUi(page, env.server.url, seeded.people.technician.email);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
-    await page.goto(`${server.url}/labs/${seeded.labId}/chemicals`);
+    await page.goto(`${env.server.url}/labs/${seeded.labId}/chemicals`);
     await page.getByTestId('field-name').fill('Workshop borate blend');
     await page.getByTestId('field-solubilityLines').fill('10 12\n30 20\n50 31');
     await page

@@ -1,15 +1,13 @@
 import path from 'node:path';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import sharp from 'sharp';
 import { MarkModel, PhotoModel } from '../../server/models';
-import { ensureWebBuild } from '../../scripts/web-build';
 import { PASSWORD } from '../support/accounts';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { sessionWithPair } from '../support/burn';
-import { freshDatabase, type TestDatabase } from '../support/db';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
 import { seedLab, signInThroughUi } from '../support/ui';
@@ -17,22 +15,7 @@ import { waitUntil } from '../support/wait';
 
 jest.setTimeout(240_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
-
-beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
-});
+const env = browserTestEnv();
 
 /** Taps two marks a scripted interval apart, timed inside the page (no test-runner latency). */
 function tapApart(page: Page, first: string, second: string, ms: number): Promise<void> {
@@ -58,17 +41,17 @@ function tapApart(page: Page, first: string, second: string, ms: number): Promis
 
 describe('the two-lane timer on a phone (390×844)', () => {
   it('records the scripted afterflame, keeps marks through a lost connection and a reload, uploads photos, and locks after sign-off', async () => {
-    const seeded = await seedLab(server.deps, 'Timer lab');
+    const seeded = await seedLab(env.server.deps, 'Timer lab');
     const { pair, treatedId, controlId } = await sessionWithPair(
       seeded.labId,
       seeded.people.technician.email,
     );
-    const context = await browser.newContext({ viewport: viewports.phone });
+    const context = await env.browser.newContext({ viewport: viewports.phone });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, seeded.people.technician.email);
+    await signInThroughUi(page, env.server.url, seeded.people.technician.email);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
-    await page.goto(`${server.url}/labs/${seeded.labId}/burn-tests/pairs/${pair.id}/timer`);
+    await page.goto(`${env.server.url}/labs/${seeded.labId}/burn-tests/pairs/${pair.id}/timer`);
     await page.getByTestId('lane-treated').waitFor();
 
     await page.getByTestId('mark-treated-flame_applied').click();
@@ -138,11 +121,11 @@ describe('the two-lane timer on a phone (390×844)', () => {
     await context.close();
 
     // A reviewer signs it off; an edit is then refused.
-    const reviewer = await browser.newContext({ viewport: viewports.phone });
+    const reviewer = await env.browser.newContext({ viewport: viewports.phone });
     const page2 = await reviewer.newPage();
-    await signInThroughUi(page2, server.url, seeded.people.reviewer.email, PASSWORD);
+    await signInThroughUi(page2, env.server.url, seeded.people.reviewer.email, PASSWORD);
     await page2.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
-    await page2.goto(`${server.url}/labs/${seeded.labId}/burn-tests/review`);
+    await page2.goto(`${env.server.url}/labs/${seeded.labId}/burn-tests/review`);
     await page2.getByTestId(`review-${pair.id}`).click();
     await page2.getByTestId('sign-off').click();
     await page2
@@ -153,11 +136,11 @@ describe('the two-lane timer on a phone (390×844)', () => {
     await reviewer.close();
 
     // The technician comes back: no edit controls, and the server refuses an edit anyway.
-    const again = await browser.newContext({ viewport: viewports.phone });
+    const again = await env.browser.newContext({ viewport: viewports.phone });
     const page3 = await again.newPage();
-    await signInThroughUi(page3, server.url, seeded.people.technician.email);
+    await signInThroughUi(page3, env.server.url, seeded.people.technician.email);
     await page3.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
-    await page3.goto(`${server.url}/labs/${seeded.labId}/burn-tests/pairs/${pair.id}`);
+    await page3.goto(`${env.server.url}/labs/${seeded.labId}/burn-tests/pairs/${pair.id}`);
     await page3
       .getByTestId('pair-status')
       .getByText(/Signed off/)

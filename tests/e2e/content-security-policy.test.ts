@@ -1,9 +1,8 @@
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import type { Browser } from 'playwright-core';
 import sharp from 'sharp';
-import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
+import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople } from '../../fixtures/demo';
 import {
   BatchModel,
   BurnSessionModel,
@@ -12,41 +11,23 @@ import {
   PhotoModel,
   RecipeModel,
 } from '../../server/models';
-import { ensureWebBuild } from '../../scripts/web-build';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { sessionWithPair } from '../support/burn';
-import { freshDatabase, type TestDatabase } from '../support/db';
 import { collectPageErrors } from '../support/page-errors';
 import { signInThroughUi } from '../support/ui';
 import { waitUntil } from '../support/wait';
 
 jest.setTimeout(300_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
-
-beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  await loadDemoData(server.deps);
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
-});
+const env = browserTestEnv({ demo: true });
 
 const manager = demoPeople.find((p) => p.role === 'manager')!;
 const technician = demoPeople.find((p) => p.role === 'technician')!;
 
 describe('the Content-Security-Policy of the web app', () => {
   it('allows no inline script, no eval and nothing from another origin', async () => {
-    const res = await fetch(`${server.url}/sign-in`);
+    const res = await fetch(`${env.server.url}/sign-in`);
     const policy = res.headers.get('content-security-policy') ?? '';
     expect(policy).toContain("default-src 'self'");
     expect(policy).toContain("script-src 'self' 'wasm-unsafe-eval';");
@@ -66,7 +47,7 @@ describe('the Content-Security-Policy of the web app', () => {
     const { pair, treatedId } = await sessionWithPair(labId, technician.email);
     const treatedCode = pair.lanes.find((l) => l.specimen.id === treatedId)!.specimen.code;
 
-    const context = await browser.newContext({ viewport: viewports.wide });
+    const context = await env.browser.newContext({ viewport: viewports.wide });
     const violations: string[] = [];
     // Reported from inside every page, so a violation on any screen reaches the test.
     await context.exposeFunction('reportCspViolation', (v: string) => violations.push(v));
@@ -81,12 +62,12 @@ describe('the Content-Security-Policy of the web app', () => {
     const errors = collectPageErrors(page);
 
     for (const screen of ['/sign-in', '/sign-up', '/forgot-password']) {
-      await page.goto(`${server.url}${screen}`, { waitUntil: 'networkidle' });
+      await page.goto(`${env.server.url}${screen}`, { waitUntil: 'networkidle' });
     }
-    await signInThroughUi(page, server.url, manager.email, DEMO_PASSWORD);
+    await signInThroughUi(page, env.server.url, manager.email, DEMO_PASSWORD);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
 
-    const base = `${server.url}/labs/${labId}`;
+    const base = `${env.server.url}/labs/${labId}`;
     const screens = [
       '',
       '/recipes',

@@ -1,10 +1,7 @@
-import type { Browser } from 'playwright-core';
-import { DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
+import { DEMO_PASSWORD, demoPeople } from '../../fixtures/demo';
 import { RecipeModel, RecipeRevisionModel } from '../../server/models';
-import { ensureWebBuild } from '../../scripts/web-build';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { pairsCsv, sitting } from '../support/imports';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
@@ -12,17 +9,11 @@ import { signInThroughUi } from '../support/ui';
 
 jest.setTimeout(240_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
+const env = browserTestEnv({ demo: true });
+
 let file: string;
 
 beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  await loadDemoData(server.deps);
-  browser = await launchBrowser();
   const recipe = await RecipeModel.findOne({
     where: { name: 'Muslin drape soak' },
     include: [{ model: RecipeRevisionModel, as: 'revisions' }],
@@ -42,20 +33,14 @@ beforeAll(async () => {
   file = pairsCsv([row('58'), row('abc'), row('63')]);
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
-});
-
 const technician = demoPeople.find((p) => p.role === 'technician')!;
 
 describe.each(Object.entries(viewports))('importing past results at %s size', (name, viewport) => {
   it('shows the bad row by line and column, imports the others, and opens their session', async () => {
-    const context = await browser.newContext({ viewport });
+    const context = await env.browser.newContext({ viewport });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, technician.email, DEMO_PASSWORD);
+    await signInThroughUi(page, env.server.url, technician.email, DEMO_PASSWORD);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
     await page.getByTestId('nav-rankings').click();
     await page.getByTestId('open-import').click();

@@ -1,43 +1,24 @@
-import type { Browser } from 'playwright-core';
 import Papa from 'papaparse';
 import sharp from 'sharp';
-import { DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
-import { ensureWebBuild } from '../../scripts/web-build';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { DEMO_PASSWORD, demoPeople } from '../../fixtures/demo';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
 import { signInThroughUi } from '../support/ui';
 
 jest.setTimeout(240_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
-
-beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  await loadDemoData(server.deps);
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
-});
+const env = browserTestEnv({ demo: true });
 
 const viewer = demoPeople.find((p) => p.role === 'viewer')!;
 
 describe.each(Object.entries(viewports))('rankings for a viewer at %s size', (name, viewport) => {
   it('shows the treatments in rank order with intervals, judges against a preset, and the CSV parses back', async () => {
-    const context = await browser.newContext({ viewport, acceptDownloads: true });
+    const context = await env.browser.newContext({ viewport, acceptDownloads: true });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, viewer.email, DEMO_PASSWORD);
+    await signInThroughUi(page, env.server.url, viewer.email, DEMO_PASSWORD);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
     await page.getByTestId('nav-rankings').click();
     await page.getByTestId('leader-statement').waitFor();
@@ -88,13 +69,13 @@ describe.each(Object.entries(viewports))('rankings for a viewer at %s size', (na
 
 describe('CanvasKit', () => {
   it('is loaded on the rankings screen only, never with the timer', async () => {
-    const context = await browser.newContext({ viewport: viewports.phone });
+    const context = await env.browser.newContext({ viewport: viewports.phone });
     const page = await context.newPage();
     const requested: string[] = [];
     page.on('request', (r) => requested.push(r.url()));
     await signInThroughUi(
       page,
-      server.url,
+      env.server.url,
       demoPeople.find((p) => p.role === 'technician')!.email,
       DEMO_PASSWORD,
     );

@@ -1,40 +1,26 @@
-import type { Browser } from 'playwright-core';
 import { sectionPath, sections } from '../../components/sections';
-import { ensureWebBuild } from '../../scripts/web-build';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
 import { seedLab, signInThroughUi } from '../support/ui';
 
 jest.setTimeout(240_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
+const env = browserTestEnv();
+
 let seeded: Awaited<ReturnType<typeof seedLab>>;
 
 beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  seeded = await seedLab(server.deps, 'Shell lab');
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
+  seeded = await seedLab(env.server.deps, 'Shell lab');
 });
 
 describe.each(Object.entries(viewports))('the app shell at %s size', (name, viewport) => {
   it('reaches every section from its navigation with no console errors', async () => {
-    const context = await browser.newContext({ viewport });
+    const context = await env.browser.newContext({ viewport });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, seeded.people.technician.email);
+    await signInThroughUi(page, env.server.url, seeded.people.technician.email);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
 
     // Phone: tabs along the bottom edge. Wide: a bar down the left side.
@@ -59,8 +45,8 @@ describe.each(Object.entries(viewports))('the app shell at %s size', (name, view
   });
 
   it('sets body text in Source Sans 3, loaded from the app itself', async () => {
-    const page = await browser.newPage({ viewport });
-    await page.goto(`${server.url}/sign-up`);
+    const page = await env.browser.newPage({ viewport });
+    await page.goto(`${env.server.url}/sign-up`);
     const intro = page.getByTestId('screen-intro');
     await intro.waitFor();
     const family = await intro.evaluate((el) => getComputedStyle(el).fontFamily);
@@ -84,11 +70,11 @@ describe.each(Object.entries(viewports))('the app shell at %s size', (name, view
 
 describe('links', () => {
   it('sends a signed-out deep link to sign-in, then back to the same page', async () => {
-    const context = await browser.newContext({ viewport: viewports.phone });
+    const context = await env.browser.newContext({ viewport: viewports.phone });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
     const deep = `/labs/${seeded.labId}/rankings`;
-    await page.goto(`${server.url}${deep}`);
+    await page.goto(`${env.server.url}${deep}`);
     await page.getByTestId('screen-title').filter({ hasText: 'Sign in' }).waitFor();
     expect(new URL(page.url()).searchParams.get('next')).toBe(deep);
     await page.getByTestId('field-email').fill(seeded.people.viewer.email);
@@ -101,8 +87,8 @@ describe('links', () => {
   });
 
   it('shows a plain not-found page with a way home for an unknown link', async () => {
-    const page = await browser.newPage({ viewport: viewports.wide });
-    await page.goto(`${server.url}/no/such/page`);
+    const page = await env.browser.newPage({ viewport: viewports.wide });
+    await page.goto(`${env.server.url}/no/such/page`);
     await page.getByText('No such page').waitFor();
     await screenshot(page, 'not-found-wide');
     await page.getByTestId('not-found-home').click();
@@ -111,9 +97,9 @@ describe('links', () => {
   });
 
   it('reports the server and database as up on Today', async () => {
-    const context = await browser.newContext({ viewport: viewports.phone });
+    const context = await env.browser.newContext({ viewport: viewports.phone });
     const page = await context.newPage();
-    await signInThroughUi(page, server.url, seeded.people.reviewer.email);
+    await signInThroughUi(page, env.server.url, seeded.people.reviewer.email);
     await page
       .getByTestId('server-status')
       .getByText(/Server and database are up/)

@@ -1,13 +1,11 @@
-import type { Browser, Locator, Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 import sharp from 'sharp';
 import { sampleStandardDeviation } from 'simple-statistics';
-import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople, loadDemoData } from '../../fixtures/demo';
-import { ensureWebBuild } from '../../scripts/web-build';
+import { DEMO_LAB_NAME, DEMO_PASSWORD, demoPeople } from '../../fixtures/demo';
 import { LabModel, UserModel } from '../../server/models';
 import { pairsForPower } from '../../shared/stats';
-import { startTestServer } from '../support/app';
-import { launchBrowser, viewports } from '../support/browser';
-import { freshDatabase, type TestDatabase } from '../support/db';
+import { browserTestEnv } from '../support/browser-env';
+import { viewports } from '../support/browser';
 import { collectPageErrors } from '../support/page-errors';
 import { screenshot } from '../support/screenshots';
 import { signInThroughUi } from '../support/ui';
@@ -15,19 +13,14 @@ import { burnTreatment } from '../support/treatment';
 
 jest.setTimeout(240_000);
 
-let db: TestDatabase;
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Browser;
+const env = browserTestEnv({ demo: true });
+
 let odd: { key: string; labId: string };
 
 // A substrate with characters that mean something in a URL.
 const ODD_SUBSTRATE = 'Linen / jute 50% #2?';
 
 beforeAll(async () => {
-  db = await freshDatabase();
-  ensureWebBuild(db.config.webDir);
-  server = await startTestServer(db);
-  await loadDemoData(server.deps);
   const lab = await LabModel.findOne({ where: { name: DEMO_LAB_NAME } });
   const technician = demoPeople.find((p) => p.role === 'technician')!;
   const user = await UserModel.findOne({ where: { email: technician.email } });
@@ -41,13 +34,6 @@ beforeAll(async () => {
     ],
   });
   odd = { key: burned.key, labId: lab!.id };
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  await db?.drop();
 });
 
 const viewer = demoPeople.find((p) => p.role === 'viewer')!;
@@ -68,10 +54,10 @@ describe.each(Object.entries(viewports))(
   'treatment detail for a viewer at %s size',
   (name, viewport) => {
     it('opens from the rankings with the chosen criteria, draws both charts and sizes the next run', async () => {
-      const context = await browser.newContext({ viewport });
+      const context = await env.browser.newContext({ viewport });
       const page = await context.newPage();
       const errors = collectPageErrors(page);
-      await signInThroughUi(page, server.url, viewer.email, DEMO_PASSWORD);
+      await signInThroughUi(page, env.server.url, viewer.email, DEMO_PASSWORD);
       await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
       await page.getByTestId('nav-rankings').click();
       await page.getByTestId('leader-statement').waitFor();
@@ -137,10 +123,10 @@ describe.each(Object.entries(viewports))(
 
 describe('a treatment whose substrate has URL characters', () => {
   it('opens from the rankings and from a pasted link', async () => {
-    const context = await browser.newContext({ viewport: viewports.wide });
+    const context = await env.browser.newContext({ viewport: viewports.wide });
     const page = await context.newPage();
     const errors = collectPageErrors(page);
-    await signInThroughUi(page, server.url, viewer.email, DEMO_PASSWORD);
+    await signInThroughUi(page, env.server.url, viewer.email, DEMO_PASSWORD);
     await page.getByTestId('section-title').filter({ hasText: 'Today' }).waitFor();
     await page.getByTestId('nav-rankings').click();
     await page
@@ -151,7 +137,7 @@ describe('a treatment whose substrate has URL characters', () => {
     await subtitle.filter({ hasText: ODD_SUBSTRATE }).waitFor();
     await page.reload();
     await subtitle.filter({ hasText: ODD_SUBSTRATE }).waitFor();
-    await page.goto(`${server.url}/labs/${odd.labId}/rankings/${encodeURIComponent(odd.key)}`);
+    await page.goto(`${env.server.url}/labs/${odd.labId}/rankings/${encodeURIComponent(odd.key)}`);
     await subtitle.filter({ hasText: ODD_SUBSTRATE }).waitFor();
     await expect(page.getByTestId('verdict-none').count()).resolves.toBe(1);
     expect(errors).toEqual([]);
