@@ -169,6 +169,14 @@ function fieldText(value: unknown): string {
   return typeof value === 'object' ? JSON.stringify(value) : String(value);
 }
 
+/**
+ * A field name as browsers write it in multipart/form-data (HTML's form encoding): quotes and
+ * line breaks percent-encoded. Unescaped, a quote would end the name early, and the server would
+ * see a different (valid) request from the one the case describes.
+ */
+const formName = (name: string) =>
+  name.replace(/"/g, '%22').replace(/\r/g, '%0D').replace(/\n/g, '%0A');
+
 function multipart(fields: unknown, files: FilePart[]): { type: string; data: Buffer } {
   const boundary = `----hostile${randomBytes(8).toString('hex')}`;
   const chunks: Buffer[] = [];
@@ -182,7 +190,7 @@ function multipart(fields: unknown, files: FilePart[]): { type: string; data: Bu
     const values = Array.isArray(value) ? (value.length ? value : ['']) : [value];
     for (const v of values) {
       chunks.push(
-        head(`Content-Disposition: form-data; name="${name}"`),
+        head(`Content-Disposition: form-data; name="${formName(name)}"`),
         Buffer.from(fieldText(v)),
         Buffer.from('\r\n'),
       );
