@@ -11,6 +11,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields: FieldError[] = [],
+    /** The server's id for the request, for someone reporting a failure to quote. */
+    readonly requestId?: string,
   ) {
     super(message);
     this.name = 'ApiError';
@@ -120,8 +122,8 @@ export async function apiRequest<S extends z.ZodType>(
   }
   const error = errorBodySchema.safeParse(json);
   if (error.success) {
-    const { code, message, fields } = error.data.error;
-    throw new ApiError(res.status, code, message, fields);
+    const { code, message, fields, requestId } = error.data.error;
+    throw new ApiError(res.status, code, message, fields, requestId);
   }
   throw new ApiError(
     res.status,

@@ -1,5 +1,9 @@
 import { ApiError } from './client';
 
+/** A short reference the lab's administrator can find in the server log. */
+const reference = (error: ApiError) =>
+  error.requestId ? ` If it keeps happening, quote reference ${error.requestId.slice(0, 8)}.` : '';
+
 /** The banner text for a failed request, chosen by the error's code (never by its message). */
 export function bannerMessage(error: unknown): string {
   if (!(error instanceof ApiError)) return 'Something went wrong. Please try again.';
@@ -19,7 +23,7 @@ export function bannerMessage(error: unknown): string {
       return 'Your role in this lab does not allow this.';
     case 'internal':
     case 'unexpected_response':
-      return 'Something went wrong on our side. Please try again in a moment.';
+      return `Something went wrong on our side. Please try again in a moment.${reference(error)}`;
     default:
       // rate_limited (with its wait time), last_manager, invalid_link, email_taken, …:
       // the server's sentence is written for people.

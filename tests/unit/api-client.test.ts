@@ -2,6 +2,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { z } from 'zod';
 import { ApiError, apiRequest } from '../../components/api/client';
+import { bannerMessage } from '../../components/api/error-messages';
 
 type Reply = { status: number; body: string; type?: string };
 let reply: Reply;
@@ -51,6 +52,22 @@ describe('apiRequest', () => {
       rawBody: { contentType: 'text/csv', text },
     });
     expect([lastType, lastBody]).toEqual(['text/csv', text]);
+  });
+
+  it('keeps the request id of an unexpected failure and shows its start as a reference', async () => {
+    reply = {
+      status: 500,
+      body: JSON.stringify({
+        error: {
+          code: 'internal',
+          message: 'Something went wrong on our side. Please try again.',
+          requestId: '6d0afa75-b977-4f1a-ad1f-928c0e156ddd',
+        },
+      }),
+    };
+    const err = await fail(apiRequest('/x', thing, { baseUrl: base }));
+    expect(err.requestId).toBe('6d0afa75-b977-4f1a-ad1f-928c0e156ddd');
+    expect(bannerMessage(err)).toMatch(/quote reference 6d0afa75\.$/);
   });
 
   it('turns an error body into an ApiError with its code, status and fields', async () => {
