@@ -15,21 +15,25 @@ async function chemicalId(lab: Lab, referenceKey: string): Promise<string> {
   ).id;
 }
 
+/** A recipe body of one chemical at `amount` g per 100 g water, with what a test changes. */
+function recipeBody(chemical: string, amount: number, changes: Record<string, unknown> = {}) {
+  return {
+    name: `Boric soak ${randomUUID().slice(0, 6)}`,
+    substrate: 'cotton',
+    ingredients: [{ chemicalId: chemical, amount, unit: 'g_per_100g_water' }],
+    mixingTempC: 40,
+    soakMinutes: 30,
+    dryingMethod: 'rack',
+    ...changes,
+  };
+}
+
 async function boricRecipe(lab: Lab, gPer100gWater = 5) {
   const boric = await chemicalId(lab, 'boric-acid');
   const res = await request(t.app)
     .post(`/api/labs/${lab.labId}/recipes`)
     .set(bearer(lab.token))
-    .send({
-      name: `Boric soak ${randomUUID().slice(0, 6)}`,
-      substrate: 'cotton',
-      ingredients: [{ chemicalId: boric, amount: gPer100gWater, unit: 'g_per_100g_water' }],
-      mixingTempC: 40,
-      soakMinutes: 30,
-      drainMinutes: 5,
-      dryingMethod: 'rack',
-      dryingMinutes: 720,
-    });
+    .send(recipeBody(boric, gPer100gWater, { drainMinutes: 5, dryingMinutes: 720 }));
   expect(res.status).toBe(201);
   return { recipe: recipeSchema.parse(res.body), boric };
 }
@@ -101,14 +105,7 @@ describe('recipes and revisions', () => {
     const res = await request(t.app)
       .put(`/api/labs/${lab.labId}/recipes/${recipe.id}`)
       .set(bearer(lab.token))
-      .send({
-        name: recipe.name,
-        substrate: 'cotton',
-        ingredients: [{ chemicalId: boric, amount: 4, unit: 'g_per_100g_water' }],
-        mixingTempC: 40,
-        soakMinutes: 30,
-        dryingMethod: 'rack',
-      });
+      .send(recipeBody(boric, 4, { name: recipe.name }));
     expect(res.status).toBe(200);
     expect(res.body.current.number).toBe(1);
     expect(res.body.current.id).toBe(recipe.current.id);
@@ -126,14 +123,7 @@ describe('recipes and revisions', () => {
     const edit = await request(t.app)
       .put(`/api/labs/${lab.labId}/recipes/${recipe.id}`)
       .set(bearer(lab.token))
-      .send({
-        name: recipe.name,
-        substrate: 'cotton',
-        ingredients: [{ chemicalId: boric, amount: 6, unit: 'g_per_100g_water' }],
-        mixingTempC: 45,
-        soakMinutes: 30,
-        dryingMethod: 'rack',
-      });
+      .send(recipeBody(boric, 6, { name: recipe.name, mixingTempC: 45 }));
     expect(edit.status).toBe(200);
     expect(edit.body.current.number).toBe(2);
     expect(edit.body.current.ingredients[0].gPer100gWater).toBe(6);
