@@ -170,12 +170,13 @@ function fieldText(value: unknown): string {
 }
 
 /**
- * A field name as browsers write it in multipart/form-data (HTML's form encoding): quotes and
- * line breaks percent-encoded. Unescaped, a quote would end the name early, and the server would
- * see a different (valid) request from the one the case describes.
+ * A field name as a well-formed multipart/form-data header: quotes and line breaks
+ * percent-encoded (as browsers do), a backslash as a quoted-pair (RFC 7578 names are quoted
+ * strings). Unescaped, either would end or bend the name, and the server would see another,
+ * valid request than the one the case describes.
  */
 const formName = (name: string) =>
-  name.replace(/"/g, '%22').replace(/\r/g, '%0D').replace(/\n/g, '%0A');
+  name.replace(/\\/g, '\\\\').replace(/"/g, '%22').replace(/\r/g, '%0D').replace(/\n/g, '%0A');
 
 function multipart(fields: unknown, files: FilePart[]): { type: string; data: Buffer } {
   const boundary = `----hostile${randomBytes(8).toString('hex')}`;
