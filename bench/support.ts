@@ -1,8 +1,8 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import http from 'node:http';
-import net from 'node:net';
 import path from 'node:path';
 import { childEnv, loadConfig, repoRoot } from '../server/config';
+import { freePort } from '../scripts/free-port';
 import { testCluster } from '../scripts/local-db';
 import {
   databaseUrl,
@@ -11,15 +11,6 @@ import {
   startCluster,
   stopCluster,
 } from '../scripts/pg-cluster';
-
-export function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
-}
 
 /** A throwaway database in the tests' private cluster, for one benchmark. */
 export async function benchDatabase(name: string) {
@@ -37,6 +28,16 @@ export async function benchDatabase(name: string) {
   };
 }
 
+/** Resolves once the server process says it listens; rejects if it exits first. */
+function untilListening(child: ChildProcess): Promise<void> {
+  return new Promise<void>((resolve, reject) => {
+    child.stdout!.on('data', (chunk: Buffer) => {
+      if (chunk.toString().includes('API listening')) resolve();
+    });
+    child.once('exit', (code) => reject(new Error(`server exited with ${code}`)));
+  });
+}
+
 /** The real server in its own process, so the load generator does not share its event loop. */
 export async function startServerProcess(
   env: Record<string, string>,
@@ -49,12 +50,7 @@ export async function startServerProcess(
     stdio: ['ignore', 'pipe', 'inherit'],
     env: childEnv({ ...env, PORT: String(port), QB_LOG_REQUESTS: '0' }),
   });
-  await new Promise<void>((resolve, reject) => {
-    child.stdout!.on('data', (chunk: Buffer) => {
-      if (chunk.toString().includes('API listening')) resolve();
-    });
-    child.once('exit', (code) => reject(new Error(`server exited with ${code}`)));
-  });
+  await untilListening(child);
   return {
     url: `http://127.0.0.1:${port}`,
     stop: () => {
@@ -129,12 +125,7 @@ export async function startServerWithMemory(env: Record<string, string>): Promis
       env: childEnv({ ...env, PORT: String(port), QB_LOG_REQUESTS: '0' }),
     },
   );
-  await new Promise<void>((resolve, reject) => {
-    child.stdout!.on('data', (chunk: Buffer) => {
-      if (chunk.toString().includes('API listening')) resolve();
-    });
-    child.once('exit', (code) => reject(new Error(`server exited with ${code}`)));
-  });
+  await untilListening(child);
   return {
     url: `http://127.0.0.1:${port}`,
     memory: () =>

@@ -16,7 +16,7 @@ import {
 import { withTestApp } from '../support/app';
 import { databaseChecksum, type DatabaseFigures } from '../support/db-checksum';
 import { makeLabWorld } from '../support/hostile/world';
-import { freePort } from '../support/killable-server';
+import { freePort } from '../../scripts/free-port';
 import { recordFigures, soak } from '../support/soak';
 
 // npm run db:backup / db:restore, run as a user would: a round trip from a configured database

@@ -16,10 +16,10 @@ import {
   stopCluster,
   type Cluster,
 } from '../../scripts/pg-cluster';
+import { freePort } from '../../scripts/free-port';
 import { PASSWORD, uniqueEmail } from '../support/accounts';
 import {
   call,
-  freePort,
   serverEnv,
   signUpThrough,
   startServerProcess,

@@ -3,6 +3,7 @@ import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
+import { freePort } from '../../scripts/free-port';
 import {
   ClusterError,
   clusterFor,
@@ -14,13 +15,6 @@ import {
 
 // A real, separate cluster in a temporary folder: the same code path as `npm run db`.
 const dataDir = mkdtempSync(path.join(os.tmpdir(), 'qb-cluster-'));
-const freePort = (): Promise<number> =>
-  new Promise((resolve) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
 
 afterAll(() => rmSync(dataDir, { recursive: true, force: true }));
 

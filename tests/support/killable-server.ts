@@ -1,6 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import net from 'node:net';
 import { childEnv, repoRoot } from '../../server/config';
+import { freePort } from '../../scripts/free-port';
 
 // The real server (scripts/dev-api.ts) in a process of its own, so a test can kill it with
 // SIGKILL or take its database away and watch what a client sees.
@@ -14,15 +14,6 @@ export type ServerProcess = {
   /** Everything the process wrote to stderr, for a failure message. */
   stderr: () => string;
 };
-
-export function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
-}
 
 /** Environment for a server process under test: test password cost, no rate limit in the way. */
 export function serverEnv(overrides: Record<string, string>): Record<string, string> {

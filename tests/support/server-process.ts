@@ -1,16 +1,7 @@
 import { spawn } from 'node:child_process';
-import net from 'node:net';
 import path from 'node:path';
 import { childEnv, repoRoot } from '../../server/config';
-
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const probe = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
-}
+import { freePort } from '../../scripts/free-port';
 
 export type ServerProcess = { url: string; stop: () => Promise<void> };
 
