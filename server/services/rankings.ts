@@ -279,8 +279,7 @@ export async function rankingsJson(
   labId: string,
   q: RankingQuery,
 ): Promise<Pick<CachedRanking, 'json' | 'gzipped' | 'etag'>> {
-  const { json, gzipped, etag } = await cachedRanking(labId, q);
-  return { json, gzipped, etag };
+  return cachedRanking(labId, q);
 }
 
 /** The pairs with their session's conditions: what a pairs file needs to import elsewhere. */
