@@ -50,4 +50,34 @@ module.exports = tseslint.config(
     ['**/app/**', '**/server/**', '**/scripts/**', 'express', 'sequelize', 'pg', 'node:*'],
     'components/ may import shared/ only.',
   ),
+  // zod and the shared schemas reach the web app only through components/schema-kit.ts, which
+  // loads as one lazy chunk: a value import anywhere else would put zod in the first page load.
+  {
+    files: ['app/**', 'components/**'],
+    ignores: ['components/schema-kit.ts', 'components/client-schemas.ts', 'components/zod-setup.ts'],
+    rules: {
+      '@typescript-eslint/no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: [
+                'zod',
+                'zod/*',
+                '@hookform/resolvers/*',
+                '**/shared/schemas/*',
+                '**/shared/burn/marks',
+                '**/shared/criteria/types',
+                '**/components/schema-kit',
+                './schema-kit',
+              ],
+              allowTypeImports: true,
+              message:
+                'Value imports of zod and the shared schemas go through components/schemas.ts (loadSchemaKit), so zod stays out of the first page load; plain words and lists live in shared/terms/.',
+            },
+          ],
+        },
+      ],
+    },
+  },
 );

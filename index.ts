@@ -1,3 +1,3 @@
-// The app's entry: settings that must precede every other module, then Expo Router.
-import './components/zod-setup';
+// The app's entry: Expo Router. zod is not imported here: it loads with the schema kit
+// (components/schemas.ts), which sets zod up first.
 import 'expo-router/entry';

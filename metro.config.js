@@ -10,8 +10,13 @@ const config = getDefaultConfig(__dirname);
 // drop unused exports, so they would all load with the first page. The app speaks English:
 // zod's locales index resolves to a module with English alone.
 const zodLocales = path.join(__dirname, 'metro-zod-locales.js');
+// Likewise simple-statistics: the web bundle takes the few functions the app uses, one module each.
+const simpleStatistics = path.join(__dirname, 'metro-simple-statistics.js');
 const resolveRequest = config.resolver.resolveRequest;
 config.resolver.resolveRequest = (context, moduleName, platform) => {
+  if (moduleName === 'simple-statistics') {
+    return { type: 'sourceFile', filePath: simpleStatistics };
+  }
   if (
     moduleName === '../locales/index.js' &&
     /[\\/]node_modules[\\/]zod[\\/]/.test(context.originModulePath)

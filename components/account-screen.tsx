@@ -1,7 +1,6 @@
 import { router } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
-import { changePasswordSchema } from '../shared/schemas/auth';
-import type { UnitSystem } from '../shared/schemas/roles';
+import { type UnitSystem } from '../shared/terms/roles';
 import { bannerMessage } from './api/error-messages';
 import { useChangePasswordMutation, useSignOutMutation, useUpdateMeMutation } from './api/session';
 import { useLab } from './lab-context';
@@ -19,7 +18,7 @@ const unitOptions = [
 ];
 
 function PasswordCard() {
-  const form = useZodForm(changePasswordSchema, { currentPassword: '', newPassword: '' });
+  const form = useZodForm((k) => k.changePasswordSchema, { currentPassword: '', newPassword: '' });
   const change = useChangePasswordMutation();
   const { banner, submit } = useSubmit(form, async (values) => {
     await change.mutateAsync(values);

@@ -1,5 +1,4 @@
 import { Redirect, router } from 'expo-router';
-import { createLabSchema } from '../shared/schemas/lab';
 import { bannerMessage } from './api/error-messages';
 import { useCreateLabMutation } from './api/labs';
 import { useMeQuery, useSignOutMutation } from './api/session';
@@ -10,7 +9,7 @@ import { Button } from './ui/button';
 import { FormStack, FormTextField, useSubmit, useZodForm } from './ui/form';
 
 function NoLab() {
-  const form = useZodForm(createLabSchema, { name: '' });
+  const form = useZodForm((k) => k.createLabSchema, { name: '' });
   const create = useCreateLabMutation();
   const signOut = useSignOutMutation();
   const { banner, submit } = useSubmit(form, async ({ name }) => {

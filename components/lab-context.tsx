@@ -1,6 +1,6 @@
 import { createContext, useContext, type ReactNode } from 'react';
 import type { LabMembership, Me } from '../shared/schemas/auth';
-import { roleCan, type Capability } from '../shared/schemas/roles';
+import { roleCan, type Capability } from '../shared/terms/roles';
 
 type LabContextValue = { lab: LabMembership; me: Me };
 

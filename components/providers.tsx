@@ -1,7 +1,8 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { useState, type ReactNode } from 'react';
+import { useEffect, useState, type ReactNode } from 'react';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 import { ApiError } from './api/client';
+import { preloadWhenIdle } from './preload';
 
 function shouldRetry(failureCount: number, error: unknown): boolean {
   // A 4xx will not change by asking again; network trouble and 5xx may.
@@ -14,6 +15,7 @@ export function Providers({ children }: { children: ReactNode }) {
     () =>
       new QueryClient({ defaultOptions: { queries: { retry: shouldRetry, staleTime: 10_000 } } }),
   );
+  useEffect(preloadWhenIdle, []);
   return (
     <SafeAreaProvider>
       <QueryClientProvider client={client}>{children}</QueryClientProvider>

@@ -1,5 +1,5 @@
 import { cToF, formatMass, GRAMS_PER_OZ } from '../shared/units';
-import type { UnitSystem } from '../shared/schemas/roles';
+import { type UnitSystem } from '../shared/terms/roles';
 import { useLab } from './lab-context';
 
 /** The signed-in person's display units (Account screen). Storage is always metric. */

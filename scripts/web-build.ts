@@ -14,6 +14,7 @@ const SOURCES = [
   'tsconfig.json',
   'metro.config.js',
   'metro-zod-locales.js',
+  'metro-simple-statistics.js',
 ];
 
 function newestMtime(target: string): number {

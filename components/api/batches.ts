@@ -1,12 +1,6 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import {
-  batchListSchema,
-  batchSchema,
-  specimenSchema,
-  type BatchStatus,
-  type CreateBatchInput,
-  type SpecimenInput,
-} from '../../shared/schemas/batch';
+import { type BatchStatus } from '../../shared/terms/batch';
+import type { CreateBatchInput, SpecimenInput } from '../../shared/schemas/batch';
 import { apiRequest } from './client';
 import { recipeKeys } from './recipes';
 
@@ -22,7 +16,7 @@ export function useBatchesQuery(labId: string, status: BatchStatus | '' = '') {
     queryFn: ({ signal }) =>
       apiRequest(
         `/api/labs/${labId}/batches${status ? `?status=${status}` : ''}`,
-        batchListSchema,
+        (k) => k.batchListSchema,
         { signal },
       ),
     refetchInterval: 60_000,
@@ -33,7 +27,7 @@ export function useBatchQuery(labId: string, batchId: string) {
   return useQuery({
     queryKey: batchKeys.batch(labId, batchId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/batches/${batchId}`, batchSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/batches/${batchId}`, (k) => k.batchSchema, { signal }),
   });
 }
 
@@ -41,7 +35,10 @@ export function useCreateBatchMutation(labId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: CreateBatchInput) =>
-      apiRequest(`/api/labs/${labId}/batches`, batchSchema, { method: 'POST', body: input }),
+      apiRequest(`/api/labs/${labId}/batches`, (k) => k.batchSchema, {
+        method: 'POST',
+        body: input,
+      }),
     onSuccess: () => {
       void client.invalidateQueries({ queryKey: batchKeys.all(labId) });
       // A used revision is frozen: the recipe screens must learn it.
@@ -59,7 +56,7 @@ export function useUpdateBatchMutation(labId: string, batchId: string) {
       startSoak?: true;
       notes?: string;
     }) =>
-      apiRequest(`/api/labs/${labId}/batches/${batchId}`, batchSchema, {
+      apiRequest(`/api/labs/${labId}/batches/${batchId}`, (k) => k.batchSchema, {
         method: 'PATCH',
         body: input,
       }),
@@ -74,7 +71,7 @@ export function useAddSpecimenMutation(labId: string, batchId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: SpecimenInput) =>
-      apiRequest(`/api/labs/${labId}/batches/${batchId}/specimens`, specimenSchema, {
+      apiRequest(`/api/labs/${labId}/batches/${batchId}/specimens`, (k) => k.specimenSchema, {
         method: 'POST',
         body: input,
       }),
@@ -93,10 +90,14 @@ export function useUpdateSpecimenMutation(labId: string, batchId: string) {
       wetMassG?: number;
       dryMassAfterG?: number;
     }) =>
-      apiRequest(`/api/labs/${labId}/batches/${batchId}/specimens/${specimenId}`, specimenSchema, {
-        method: 'PATCH',
-        body: input,
-      }),
+      apiRequest(
+        `/api/labs/${labId}/batches/${batchId}/specimens/${specimenId}`,
+        (k) => k.specimenSchema,
+        {
+          method: 'PATCH',
+          body: input,
+        },
+      ),
     onSuccess: () => client.invalidateQueries({ queryKey: batchKeys.batch(labId, batchId) }),
   });
 }

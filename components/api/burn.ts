@@ -1,14 +1,9 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import {
-  pairSchema,
-  reviewQueueSchema,
-  sessionListSchema,
-  sessionSchema,
-  type CreatePairInput,
-  type CreateSessionInput,
-  type MeasurementInput,
-  type Pair,
-  unburnedSchema,
+import type {
+  CreatePairInput,
+  CreateSessionInput,
+  MeasurementInput,
+  Pair,
 } from '../../shared/schemas/burn';
 import { apiRequest } from './client';
 
@@ -24,7 +19,7 @@ export function useSessionsQuery(labId: string) {
   return useQuery({
     queryKey: burnKeys.sessions(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/burn-sessions`, sessionListSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/burn-sessions`, (k) => k.sessionListSchema, { signal }),
   });
 }
 
@@ -32,7 +27,9 @@ export function useSessionQuery(labId: string, sessionId: string) {
   return useQuery({
     queryKey: burnKeys.session(labId, sessionId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/burn-sessions/${sessionId}`, sessionSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/burn-sessions/${sessionId}`, (k) => k.sessionSchema, {
+        signal,
+      }),
   });
 }
 
@@ -40,7 +37,7 @@ export function useCreateSessionMutation(labId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: CreateSessionInput) =>
-      apiRequest(`/api/labs/${labId}/burn-sessions`, sessionSchema, {
+      apiRequest(`/api/labs/${labId}/burn-sessions`, (k) => k.sessionSchema, {
         method: 'POST',
         body: input,
       }),
@@ -52,7 +49,7 @@ export function useUpdateSessionMutation(labId: string, sessionId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: { checklist?: Record<string, boolean>; notes?: string }) =>
-      apiRequest(`/api/labs/${labId}/burn-sessions/${sessionId}`, sessionSchema, {
+      apiRequest(`/api/labs/${labId}/burn-sessions/${sessionId}`, (k) => k.sessionSchema, {
         method: 'PATCH',
         body: input,
       }),
@@ -64,7 +61,7 @@ export function useUnburnedQuery(labId: string) {
   return useQuery({
     queryKey: burnKeys.unburned(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/specimens/unburned`, unburnedSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/specimens/unburned`, (k) => k.unburnedSchema, { signal }),
   });
 }
 
@@ -72,7 +69,7 @@ export function useCreatePairMutation(labId: string, sessionId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: CreatePairInput) =>
-      apiRequest(`/api/labs/${labId}/burn-sessions/${sessionId}/pairs`, pairSchema, {
+      apiRequest(`/api/labs/${labId}/burn-sessions/${sessionId}/pairs`, (k) => k.pairSchema, {
         method: 'POST',
         body: input,
       }),
@@ -84,7 +81,7 @@ export function useCreatePairMutation(labId: string, sessionId: string) {
 }
 
 export function fetchPair(labId: string, pairId: string, signal?: AbortSignal): Promise<Pair> {
-  return apiRequest(`/api/labs/${labId}/pairs/${pairId}`, pairSchema, { signal });
+  return apiRequest(`/api/labs/${labId}/pairs/${pairId}`, (k) => k.pairSchema, { signal });
 }
 
 export function usePairQuery(labId: string, pairId: string) {
@@ -108,19 +105,23 @@ function usePairAction<T>(labId: string, pairId: string, run: (input: T) => Prom
 
 export function useSubmitPairMutation(labId: string, pairId: string) {
   return usePairAction(labId, pairId, () =>
-    apiRequest(`/api/labs/${labId}/pairs/${pairId}/submit`, pairSchema, { method: 'POST' }),
+    apiRequest(`/api/labs/${labId}/pairs/${pairId}/submit`, (k) => k.pairSchema, {
+      method: 'POST',
+    }),
   );
 }
 
 export function useSignOffMutation(labId: string, pairId: string) {
   return usePairAction(labId, pairId, () =>
-    apiRequest(`/api/labs/${labId}/pairs/${pairId}/sign-off`, pairSchema, { method: 'POST' }),
+    apiRequest(`/api/labs/${labId}/pairs/${pairId}/sign-off`, (k) => k.pairSchema, {
+      method: 'POST',
+    }),
   );
 }
 
 export function useReturnPairMutation(labId: string, pairId: string) {
   return usePairAction(labId, pairId, (comment: string) =>
-    apiRequest(`/api/labs/${labId}/pairs/${pairId}/return`, pairSchema, {
+    apiRequest(`/api/labs/${labId}/pairs/${pairId}/return`, (k) => k.pairSchema, {
       method: 'POST',
       body: { comment },
     }),
@@ -132,7 +133,7 @@ export function useCorrectionMutation(labId: string, pairId: string) {
     labId,
     pairId,
     (input: { specimenId: string; changes: MeasurementInput; reason: string }) =>
-      apiRequest(`/api/labs/${labId}/pairs/${pairId}/corrections`, pairSchema, {
+      apiRequest(`/api/labs/${labId}/pairs/${pairId}/corrections`, (k) => k.pairSchema, {
         method: 'POST',
         body: input,
       }),
@@ -143,6 +144,6 @@ export function useReviewQueueQuery(labId: string) {
   return useQuery({
     queryKey: burnKeys.queue(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/review-queue`, reviewQueueSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/review-queue`, (k) => k.reviewQueueSchema, { signal }),
   });
 }

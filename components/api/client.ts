@@ -1,6 +1,7 @@
 import type { z } from 'zod';
-import { errorBodySchema, type FieldError } from '../../shared/schemas/error';
+import type { FieldError } from '../../shared/schemas/error';
 import { apiBaseUrl } from '../config';
+import { loadSchemaKit, type SchemaKit, type SchemaPick } from '../schemas';
 
 /** Client-side codes added to the server's own (shared/schemas/error.ts). */
 export type ClientErrorCode = 'network' | 'unexpected_response';
@@ -31,6 +32,11 @@ type RequestOptions = {
   signal?: AbortSignal;
   /** Non-2xx statuses whose body is still a valid answer (e.g. 503 from health). */
   acceptStatuses?: number[];
+  /**
+   * An exact check for a common, trivial answer (a signed-out session's `{"me":null}`) that the
+   * schema would accept unchanged: such an answer is returned without loading the schema kit.
+   */
+  plainAnswer?: (json: unknown) => boolean;
   baseUrl?: string;
 };
 
@@ -72,11 +78,24 @@ async function send(
     });
   } catch (err) {
     if ((err as Error).name === 'AbortError') throw err;
-    throw new ApiError(
-      0,
-      'network',
-      'Cannot reach the Quenchbook server. Check the connection and try again.',
-    );
+    throw networkError();
+  }
+}
+
+function networkError(): ApiError {
+  return new ApiError(
+    0,
+    'network',
+    'Cannot reach the Quenchbook server. Check the connection and try again.',
+  );
+}
+
+/** The schemas that check answers; failing to fetch them is a connection failure like any other. */
+export async function schemaKit(): Promise<SchemaKit> {
+  try {
+    return await loadSchemaKit();
+  } catch {
+    throw networkError();
   }
 }
 
@@ -92,16 +111,20 @@ function refreshSession(baseUrl: string): Promise<boolean> {
   return refreshing;
 }
 
-/** The one way the client talks to the API: JSON in, schema-checked JSON out, ApiError on failure. */
+/**
+ * The one way the client talks to the API: JSON in, schema-checked JSON out, ApiError on failure.
+ * `pick` names the answer's schema in the lazily loaded kit, e.g. `(k) => k.labSchema`.
+ */
 export async function apiRequest<S extends z.ZodType>(
   path: string,
-  schema: S,
+  pick: SchemaPick<S>,
   {
     method = 'GET',
     body,
     rawBody,
     signal,
     acceptStatuses = [],
+    plainAnswer,
     baseUrl = apiBaseUrl,
   }: RequestOptions = {},
 ): Promise<z.infer<S>> {
@@ -111,8 +134,11 @@ export async function apiRequest<S extends z.ZodType>(
     res = await send(path, method, body, signal, baseUrl, rawBody);
   }
   const json = await readJson(res);
-  if (res.ok || acceptStatuses.includes(res.status)) {
-    const parsed = schema.safeParse(json);
+  const answered = res.ok || acceptStatuses.includes(res.status);
+  if (answered && plainAnswer?.(json)) return json as z.infer<S>;
+  const kit = await schemaKit();
+  if (answered) {
+    const parsed = pick(kit).safeParse(json);
     if (parsed.success) return parsed.data;
     throw new ApiError(
       res.status,
@@ -120,7 +146,7 @@ export async function apiRequest<S extends z.ZodType>(
       'The server sent an answer this app does not understand.',
     );
   }
-  const error = errorBodySchema.safeParse(json);
+  const error = kit.errorBodySchema.safeParse(json);
   if (error.success) {
     const { code, message, fields, requestId } = error.data.error;
     throw new ApiError(res.status, code, message, fields, requestId);

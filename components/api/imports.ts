@@ -1,6 +1,4 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { z } from 'zod';
-import { pairImportPreviewSchema, pairImportResultSchema } from '../../shared/schemas/pair-import';
 import { burnKeys } from './burn';
 import { apiRequest } from './client';
 
@@ -15,7 +13,7 @@ export function usePreviewImportMutation(labId: string) {
     mutationFn: ({ fileName, text }: { fileName: string; text: string }) =>
       apiRequest(
         `/api/labs/${labId}/pair-imports/preview?${new URLSearchParams({ fileName }).toString()}`,
-        pairImportPreviewSchema,
+        (k) => k.pairImportPreviewSchema,
         { method: 'POST', rawBody: { contentType: 'text/csv', text } },
       ),
   });
@@ -26,9 +24,13 @@ export function useAcceptImportMutation(labId: string) {
   return useMutation({
     mutationKey: importKeys.all(labId),
     mutationFn: (importId: string) =>
-      apiRequest(`/api/labs/${labId}/pair-imports/${importId}/accept`, pairImportResultSchema, {
-        method: 'POST',
-      }),
+      apiRequest(
+        `/api/labs/${labId}/pair-imports/${importId}/accept`,
+        (k) => k.pairImportResultSchema,
+        {
+          method: 'POST',
+        },
+      ),
     onSuccess: () => {
       void client.invalidateQueries({ queryKey: burnKeys.sessions(labId) });
       void client.invalidateQueries({ queryKey: burnKeys.queue(labId) });
@@ -41,7 +43,7 @@ export function useDiscardImportMutation(labId: string) {
   return useMutation({
     mutationKey: importKeys.all(labId),
     mutationFn: (importId: string) =>
-      apiRequest(`/api/labs/${labId}/pair-imports/${importId}`, z.unknown(), {
+      apiRequest(`/api/labs/${labId}/pair-imports/${importId}`, (k) => k.ignoredAnswerSchema, {
         method: 'DELETE',
       }),
   });

@@ -1,16 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { z } from 'zod';
-import { auditPageSchema } from '../../shared/schemas/audit';
 import type { AcceptInvitationInput } from '../../shared/schemas/auth';
-import { signedInSchema } from '../../shared/schemas/auth';
-import {
-  invitationListSchema,
-  invitationPreviewSchema,
-  invitationSchema,
-  type CreateInvitationInput,
-} from '../../shared/schemas/invitation';
-import { labSchema, memberListSchema, memberSchema } from '../../shared/schemas/lab';
-import type { Role } from '../../shared/schemas/roles';
+import type { CreateInvitationInput } from '../../shared/schemas/invitation';
+import { type Role } from '../../shared/terms/roles';
 import { apiRequest, setCsrfToken } from './client';
 import { sessionKeys } from './session';
 
@@ -23,12 +14,10 @@ export const labKeys = {
   invitation: (token: string) => ['invitation', token] as const,
 };
 
-const nothing = z.unknown();
-
 export function useLabQuery(labId: string) {
   return useQuery({
     queryKey: labKeys.lab(labId),
-    queryFn: ({ signal }) => apiRequest(`/api/labs/${labId}`, labSchema, { signal }),
+    queryFn: ({ signal }) => apiRequest(`/api/labs/${labId}`, (k) => k.labSchema, { signal }),
   });
 }
 
@@ -37,7 +26,7 @@ export function useMembersQuery(labId: string) {
     queryOptions({
       queryKey: labKeys.members(labId),
       queryFn: ({ signal }) =>
-        apiRequest(`/api/labs/${labId}/members`, memberListSchema, { signal }),
+        apiRequest(`/api/labs/${labId}/members`, (k) => k.memberListSchema, { signal }),
     }),
   );
 }
@@ -46,7 +35,7 @@ export function useInvitationsQuery(labId: string, enabled: boolean) {
   return useQuery({
     queryKey: labKeys.invitations(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/invitations`, invitationListSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/invitations`, (k) => k.invitationListSchema, { signal }),
     enabled,
   });
 }
@@ -55,9 +44,13 @@ export function useAuditQuery(labId: string, page: number, pageSize = 25) {
   return useQuery({
     queryKey: labKeys.audit(labId, page),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/audit?page=${page}&pageSize=${pageSize}`, auditPageSchema, {
-        signal,
-      }),
+      apiRequest(
+        `/api/labs/${labId}/audit?page=${page}&pageSize=${pageSize}`,
+        (k) => k.auditPageSchema,
+        {
+          signal,
+        },
+      ),
     placeholderData: (previous) => previous,
   });
 }
@@ -66,7 +59,7 @@ export function useChangeRoleMutation(labId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: ({ userId, role }: { userId: string; role: Role }) =>
-      apiRequest(`/api/labs/${labId}/members/${userId}`, memberSchema, {
+      apiRequest(`/api/labs/${labId}/members/${userId}`, (k) => k.memberSchema, {
         method: 'PATCH',
         body: { role },
       }),
@@ -81,7 +74,9 @@ export function useRemoveMemberMutation(labId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (userId: string) =>
-      apiRequest(`/api/labs/${labId}/members/${userId}`, nothing, { method: 'DELETE' }),
+      apiRequest(`/api/labs/${labId}/members/${userId}`, (k) => k.ignoredAnswerSchema, {
+        method: 'DELETE',
+      }),
     onSettled: () => client.invalidateQueries({ queryKey: labKeys.lab(labId) }),
   });
 }
@@ -90,7 +85,7 @@ export function useInviteMutation(labId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: CreateInvitationInput) =>
-      apiRequest(`/api/labs/${labId}/invitations`, invitationSchema, {
+      apiRequest(`/api/labs/${labId}/invitations`, (k) => k.invitationSchema, {
         method: 'POST',
         body: input,
       }),
@@ -102,7 +97,9 @@ export function useWithdrawInvitationMutation(labId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (invitationId: string) =>
-      apiRequest(`/api/labs/${labId}/invitations/${invitationId}`, nothing, { method: 'DELETE' }),
+      apiRequest(`/api/labs/${labId}/invitations/${invitationId}`, (k) => k.ignoredAnswerSchema, {
+        method: 'DELETE',
+      }),
     onSettled: () => client.invalidateQueries({ queryKey: labKeys.invitations(labId) }),
   });
 }
@@ -111,7 +108,7 @@ export function useCreateLabMutation() {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (name: string) =>
-      apiRequest('/api/labs', labSchema, { method: 'POST', body: { name } }),
+      apiRequest('/api/labs', (k) => k.labSchema, { method: 'POST', body: { name } }),
     onSuccess: () => client.invalidateQueries({ queryKey: sessionKeys.me }),
   });
 }
@@ -120,23 +117,29 @@ export function useInvitationPreviewQuery(token: string) {
   return useQuery({
     queryKey: labKeys.invitation(token),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/invitations/${encodeURIComponent(token)}`, invitationPreviewSchema, {
-        signal,
-      }),
+      apiRequest(
+        `/api/invitations/${encodeURIComponent(token)}`,
+        (k) => k.invitationPreviewSchema,
+        {
+          signal,
+        },
+      ),
     retry: false,
   });
 }
-
-const acceptedSchema = z.union([signedInSchema, z.object({ labId: z.uuid() })]);
 
 export function useAcceptInvitationMutation(token: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: AcceptInvitationInput) =>
-      apiRequest(`/api/invitations/${encodeURIComponent(token)}/accept`, acceptedSchema, {
-        method: 'POST',
-        body: input,
-      }),
+      apiRequest(
+        `/api/invitations/${encodeURIComponent(token)}/accept`,
+        (k) => k.invitationAcceptedSchema,
+        {
+          method: 'POST',
+          body: input,
+        },
+      ),
     onSuccess: async (res) => {
       if ('me' in res) {
         setCsrfToken(res.me.csrfToken);

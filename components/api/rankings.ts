@@ -1,12 +1,5 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { z } from 'zod';
 import type { CriteriaProfileInput } from '../../shared/criteria/types';
-import {
-  criteriaProfileListSchema,
-  criteriaProfileOutputSchema,
-} from '../../shared/schemas/criteria';
-import { rankingSchema } from '../../shared/schemas/ranking';
-import { treatmentDetailSchema } from '../../shared/schemas/treatment';
 import { apiRequest } from './client';
 
 export type RankingFilters = {
@@ -68,7 +61,7 @@ export function useRankingQuery(labId: string, filters: RankingFilters) {
   return useQuery({
     queryKey: rankingKeys.ranking(labId, qs),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/rankings?${qs}`, rankingSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/rankings?${qs}`, (k) => k.rankingSchema, { signal }),
     placeholderData: keepPreviousData,
   });
 }
@@ -81,29 +74,17 @@ export function useTreatmentQuery(labId: string, key: string, filters: RankingFi
     queryFn: ({ signal }) =>
       apiRequest(
         `/api/labs/${labId}/rankings/treatments/${encodeURIComponent(key)}?${qs}`,
-        treatmentDetailSchema,
+        (k) => k.treatmentDetailSchema,
         { signal },
       ),
   });
 }
 
-const presetsSchema = z.object({
-  presets: z.array(
-    z.object({
-      key: z.string(),
-      name: z.string(),
-      source: z.string().nullable(),
-      caution: z.string(),
-      description: z.string().nullable(),
-    }),
-  ),
-});
-
 export function usePresetsQuery(labId: string) {
   return useQuery({
     queryKey: rankingKeys.presets(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/criteria-presets`, presetsSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/criteria-presets`, (k) => k.criteriaPresetsSchema, { signal }),
     staleTime: Infinity,
   });
 }
@@ -116,7 +97,9 @@ export function useCriteriaProfilesQuery(labId: string) {
   return useQuery({
     queryKey: criteriaKeys.profiles(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/criteria-profiles`, criteriaProfileListSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/criteria-profiles`, (k) => k.criteriaProfileListSchema, {
+        signal,
+      }),
   });
 }
 
@@ -131,22 +114,28 @@ export function useCriteriaMutations(labId: string) {
       mutationFn: (presetKey: string) =>
         apiRequest(
           `/api/labs/${labId}/criteria-profiles/copy-preset`,
-          criteriaProfileOutputSchema,
+          (k) => k.criteriaProfileOutputSchema,
           { method: 'POST', body: { presetKey } },
         ),
       onSuccess: done,
     }),
     save: useMutation({
       mutationFn: ({ id, input }: { id: string; input: CriteriaProfileInput }) =>
-        apiRequest(`/api/labs/${labId}/criteria-profiles/${id}`, criteriaProfileOutputSchema, {
-          method: 'PUT',
-          body: input,
-        }),
+        apiRequest(
+          `/api/labs/${labId}/criteria-profiles/${id}`,
+          (k) => k.criteriaProfileOutputSchema,
+          {
+            method: 'PUT',
+            body: input,
+          },
+        ),
       onSuccess: done,
     }),
     remove: useMutation({
       mutationFn: (id: string) =>
-        apiRequest(`/api/labs/${labId}/criteria-profiles/${id}`, z.unknown(), { method: 'DELETE' }),
+        apiRequest(`/api/labs/${labId}/criteria-profiles/${id}`, (k) => k.ignoredAnswerSchema, {
+          method: 'DELETE',
+        }),
       onSuccess: done,
     }),
   };

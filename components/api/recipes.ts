@@ -1,17 +1,8 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { batchPlanSchema, type BatchPlanRequest } from '../../shared/schemas/batch';
-import {
-  chemicalListSchema,
-  chemicalSchema,
-  type CreateChemicalInput,
-} from '../../shared/schemas/chemical';
-import {
-  recipeListSchema,
-  recipeSchema,
-  revisionListSchema,
-  type RecipeInput,
-  type Substrate,
-} from '../../shared/schemas/recipe';
+import type { BatchPlanRequest } from '../../shared/schemas/batch';
+import type { CreateChemicalInput } from '../../shared/schemas/chemical';
+import { type Substrate } from '../../shared/terms/recipe';
+import type { RecipeInput } from '../../shared/schemas/recipe';
 import { apiRequest } from './client';
 
 export const recipeKeys = {
@@ -30,7 +21,7 @@ export function useChemicalsQuery(labId: string) {
   return useQuery({
     queryKey: recipeKeys.chemicals(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/chemicals`, chemicalListSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/chemicals`, (k) => k.chemicalListSchema, { signal }),
     staleTime: 5 * 60_000,
   });
 }
@@ -39,7 +30,7 @@ export function useChemicalQuery(labId: string, chemicalId: string) {
   return useQuery({
     queryKey: recipeKeys.chemical(labId, chemicalId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/chemicals/${chemicalId}`, chemicalSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/chemicals/${chemicalId}`, (k) => k.chemicalSchema, { signal }),
   });
 }
 
@@ -47,7 +38,10 @@ export function useCreateChemicalMutation(labId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: CreateChemicalInput) =>
-      apiRequest(`/api/labs/${labId}/chemicals`, chemicalSchema, { method: 'POST', body: input }),
+      apiRequest(`/api/labs/${labId}/chemicals`, (k) => k.chemicalSchema, {
+        method: 'POST',
+        body: input,
+      }),
     onSuccess: () => client.invalidateQueries({ queryKey: recipeKeys.chemicals(labId) }),
   });
 }
@@ -59,7 +53,7 @@ export function useRecipesQuery(labId: string, q: string, substrate: Substrate |
   return useQuery({
     queryKey: recipeKeys.list(labId, q.trim(), substrate),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/recipes?${params}`, recipeListSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/recipes?${params}`, (k) => k.recipeListSchema, { signal }),
     placeholderData: keepPreviousData,
   });
 }
@@ -68,7 +62,7 @@ export function useRecipeQuery(labId: string, recipeId: string) {
   return useQuery({
     queryKey: recipeKeys.recipe(labId, recipeId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/recipes/${recipeId}`, recipeSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/recipes/${recipeId}`, (k) => k.recipeSchema, { signal }),
   });
 }
 
@@ -76,7 +70,7 @@ export function useRevisionsQuery(labId: string, recipeId: string) {
   return useQuery({
     queryKey: recipeKeys.revisions(labId, recipeId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/recipes/${recipeId}/revisions`, revisionListSchema, {
+      apiRequest(`/api/labs/${labId}/recipes/${recipeId}/revisions`, (k) => k.revisionListSchema, {
         signal,
       }),
   });
@@ -87,11 +81,14 @@ export function useSaveRecipeMutation(labId: string, recipeId?: string) {
   return useMutation({
     mutationFn: (input: RecipeInput) =>
       recipeId
-        ? apiRequest(`/api/labs/${labId}/recipes/${recipeId}`, recipeSchema, {
+        ? apiRequest(`/api/labs/${labId}/recipes/${recipeId}`, (k) => k.recipeSchema, {
             method: 'PUT',
             body: input,
           })
-        : apiRequest(`/api/labs/${labId}/recipes`, recipeSchema, { method: 'POST', body: input }),
+        : apiRequest(`/api/labs/${labId}/recipes`, (k) => k.recipeSchema, {
+            method: 'POST',
+            body: input,
+          }),
     onSuccess: () => client.invalidateQueries({ queryKey: recipeKeys.recipes(labId) }),
   });
 }
@@ -101,7 +98,7 @@ export function useBatchPlanQuery(labId: string, body: BatchPlanRequest | undefi
   return useQuery({
     queryKey: recipeKeys.plan(labId, body),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/batch-plans`, batchPlanSchema, {
+      apiRequest(`/api/labs/${labId}/batch-plans`, (k) => k.batchPlanSchema, {
         method: 'POST',
         body,
         signal,

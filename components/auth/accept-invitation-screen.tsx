@@ -1,8 +1,6 @@
 import { router } from 'expo-router';
 import { View } from 'react-native';
-import { z } from 'zod';
-import { newPasswordSchema } from '../../shared/schemas/auth';
-import { roleSummaries } from '../../shared/schemas/roles';
+import { roleSummaries } from '../../shared/terms/roles';
 import { ApiError } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
 import { useAcceptInvitationMutation, useInvitationPreviewQuery } from '../api/labs';
@@ -15,13 +13,8 @@ import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AppText } from '../ui/text';
 import { AuthFrame, FrameLink } from './auth-frame';
 
-const newcomerSchema = z.object({
-  displayName: z.string().trim().min(1, 'Enter your name').max(80),
-  password: newPasswordSchema,
-});
-
 function NewcomerForm({ token, email }: { token: string; email: string }) {
-  const form = useZodForm(newcomerSchema, { displayName: '', password: '' });
+  const form = useZodForm((k) => k.newcomerFormSchema, { displayName: '', password: '' });
   const accept = useAcceptInvitationMutation(token);
   const { banner, submit } = useSubmit(form, async (values) => {
     const res = await accept.mutateAsync(values);

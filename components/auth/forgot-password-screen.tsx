@@ -1,4 +1,3 @@
-import { resetRequestSchema } from '../../shared/schemas/auth';
 import { useRequestResetMutation } from '../api/session';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
@@ -6,7 +5,7 @@ import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AuthFrame, FrameLink } from './auth-frame';
 
 export function ForgotPasswordScreen() {
-  const form = useZodForm(resetRequestSchema, { email: '' });
+  const form = useZodForm((k) => k.resetRequestSchema, { email: '' });
   const request = useRequestResetMutation();
 
   const { banner, submit } = useSubmit(form, async (values) => {

@@ -1,15 +1,11 @@
-import { z } from 'zod';
-import { newPasswordSchema } from '../../shared/schemas/auth';
 import { useConfirmResetMutation } from '../api/session';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
 import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AuthFrame, FrameLink } from './auth-frame';
 
-const formSchema = z.object({ newPassword: newPasswordSchema });
-
 export function ResetPasswordScreen({ token }: { token?: string }) {
-  const form = useZodForm(formSchema, { newPassword: '' });
+  const form = useZodForm((k) => k.resetPasswordFormSchema, { newPassword: '' });
   const confirm = useConfirmResetMutation();
 
   const { banner, submit } = useSubmit(form, async ({ newPassword }) => {

@@ -1,6 +1,5 @@
 import { router } from 'expo-router';
 import { View } from 'react-native';
-import { signInSchema } from '../../shared/schemas/auth';
 import { useSignInMutation } from '../api/session';
 import { Button } from '../ui/button';
 import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
@@ -8,7 +7,11 @@ import { AuthFrame, FrameLink } from './auth-frame';
 import { safeNext } from './next-path';
 
 export function SignInScreen({ next }: { next?: string }) {
-  const form = useZodForm(signInSchema, { email: '', password: '', tokenDelivery: 'cookie' });
+  const form = useZodForm((k) => k.signInSchema, {
+    email: '',
+    password: '',
+    tokenDelivery: 'cookie',
+  });
   const signIn = useSignInMutation();
   const target = safeNext(next);
 

@@ -1,12 +1,16 @@
 import { router } from 'expo-router';
-import { signUpSchema } from '../../shared/schemas/auth';
 import { useSignUpMutation } from '../api/session';
 import { Button } from '../ui/button';
 import { FormStack, FormTextField, useSubmit, useZodForm } from '../ui/form';
 import { AuthFrame, FrameLink } from './auth-frame';
 
 export function SignUpScreen() {
-  const form = useZodForm(signUpSchema, { email: '', password: '', displayName: '', labName: '' });
+  const form = useZodForm((k) => k.signUpSchema, {
+    email: '',
+    password: '',
+    displayName: '',
+    labName: '',
+  });
   const signUp = useSignUpMutation();
 
   const { banner, submit } = useSubmit(form, async (values) => {

@@ -1,7 +1,7 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { substrateLabels } from '../../shared/schemas/recipe';
+import { substrateLabels } from '../../shared/terms/recipe';
 import { useBatchQuery, useUpdateBatchMutation } from '../api/batches';
 import { bannerMessage } from '../api/error-messages';
 import { useRecipeQuery } from '../api/recipes';

@@ -1,8 +1,9 @@
 import { Link } from 'expo-router';
 import type { ComponentProps, ReactNode } from 'react';
 import { Platform, ScrollView, StyleSheet, View } from 'react-native';
-import type { Batch, BatchStatus } from '../../shared/schemas/batch';
-import type { UnitSystem } from '../../shared/schemas/roles';
+import { type BatchStatus } from '../../shared/terms/batch';
+import type { Batch } from '../../shared/schemas/batch';
+import { type UnitSystem } from '../../shared/terms/roles';
 import { fromMillilitres, ML_PER_US_GAL } from '../../shared/units';
 import { ApiError } from '../api/client';
 import { bannerMessage } from '../api/error-messages';

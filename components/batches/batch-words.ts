@@ -1,5 +1,6 @@
-import type { BatchStatus, BatchTargetInput } from '../../shared/schemas/batch';
-import type { UnitSystem } from '../../shared/schemas/roles';
+import { type BatchStatus } from '../../shared/terms/batch';
+import type { BatchTargetInput } from '../../shared/schemas/batch';
+import { type UnitSystem } from '../../shared/terms/roles';
 import { fromMillilitres } from '../../shared/units';
 import { formatMass, round } from '../units';
 

@@ -1,7 +1,7 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { batchStatuses, type BatchStatus } from '../../shared/schemas/batch';
+import { batchStatuses, type BatchStatus } from '../../shared/terms/batch';
 import { useBatchesQuery } from '../api/batches';
 import { bannerMessage } from '../api/error-messages';
 import { useLab } from '../lab-context';

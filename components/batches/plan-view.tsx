@@ -1,6 +1,6 @@
 import { StyleSheet, View } from 'react-native';
 import type { BatchPlanOutput } from '../../shared/schemas/batch';
-import type { UnitSystem } from '../../shared/schemas/roles';
+import { type UnitSystem } from '../../shared/terms/roles';
 import { colors, space } from '../theme';
 import { Banner } from '../ui/banner';
 import { AppText } from '../ui/text';

@@ -8,7 +8,7 @@ import {
   igniters,
   orientationLabels,
   orientations,
-} from '../../shared/schemas/burn';
+} from '../../shared/terms/burn';
 import { fToC } from '../../shared/units';
 import { ApiError } from '../api/client';
 import { useCreateSessionMutation } from '../api/burn';

@@ -1,10 +1,5 @@
 import { useSyncExternalStore } from 'react';
-import {
-  pairSchema,
-  type MeasurementInput,
-  type Pair,
-  type PostMarksInput,
-} from '../../shared/schemas/burn';
+import type { MeasurementInput, Pair, PostMarksInput } from '../../shared/schemas/burn';
 import { ApiError, apiRequest } from '../api/client';
 import { newClientId } from '../client-id';
 import { readLocal, writeLocal } from '../local-store';
@@ -65,13 +60,13 @@ export function queueMeasurement(
 
 function send(op: Op): Promise<Pair> {
   return op.type === 'marks'
-    ? apiRequest(`/api/labs/${op.labId}/pairs/${op.pairId}/marks`, pairSchema, {
+    ? apiRequest(`/api/labs/${op.labId}/pairs/${op.pairId}/marks`, (k) => k.pairSchema, {
         method: 'POST',
         body: { marks: op.marks },
       })
     : apiRequest(
         `/api/labs/${op.labId}/pairs/${op.pairId}/measurements/${op.specimenId}`,
-        pairSchema,
+        (k) => k.pairSchema,
         {
           method: 'PUT',
           body: op.values,

@@ -2,12 +2,8 @@ import { useQueryClient } from '@tanstack/react-query';
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
-import {
-  measurementInputSchema,
-  statusLabels,
-  type Lane,
-  type MeasurementInput,
-} from '../../shared/schemas/burn';
+import { statusLabels } from '../../shared/terms/burn';
+import type { Lane, MeasurementInput } from '../../shared/schemas/burn';
 import { GRAMS_PER_OZ } from '../../shared/units';
 import {
   burnKeys,
@@ -16,6 +12,7 @@ import {
   useSignOffMutation,
   useSubmitPairMutation,
 } from '../api/burn';
+import { loadSchemaKit } from '../schemas';
 import { bannerMessage } from '../api/error-messages';
 import { Loading } from '../lab-gate';
 import { useLab } from '../lab-context';
@@ -124,7 +121,7 @@ function MeasureForm({
         label={busyLabel}
         compact
         testID={`${testPrefix}-save`}
-        onPress={() => {
+        onPress={async () => {
           const values = {
             ...(toMm(f.charLength) !== undefined ? { charLengthMm: toMm(f.charLength)! } : {}),
             ...(toMm(f.charWidth) !== undefined ? { charWidthMm: toMm(f.charWidth)! } : {}),
@@ -134,7 +131,12 @@ function MeasureForm({
             ...(f.notes.trim() ? { notes: f.notes.trim() } : {}),
           };
           // Checked here with the server's schema: a queued write the server would refuse is lost work.
-          const checked = measurementInputSchema.safeParse(values);
+          const kit = await loadSchemaKit().catch(() => undefined);
+          if (!kit) {
+            setProblem('Cannot check the values without a connection yet. Try again in a moment.');
+            return;
+          }
+          const checked = kit.measurementInputSchema.safeParse(values);
           if (!checked.success) {
             setProblem(checked.error.issues.map((i) => i.message).join(' '));
             return;

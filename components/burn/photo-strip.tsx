@@ -1,10 +1,8 @@
 import * as ImagePicker from 'expo-image-picker';
 import { useEffect, useRef, useState } from 'react';
 import { Image, Linking, Platform, Pressable, StyleSheet, View } from 'react-native';
-import { sessionStateSchema } from '../../shared/schemas/auth';
-import { laneSchema, type Lane } from '../../shared/schemas/burn';
-import { errorBodySchema } from '../../shared/schemas/error';
-import { ApiError, apiRequest, setCsrfToken } from '../api/client';
+import type { Lane } from '../../shared/schemas/burn';
+import { ApiError, apiRequest, schemaKit, setCsrfToken } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
 import { newClientId } from '../client-id';
 import { apiBaseUrl } from '../config';
@@ -19,8 +17,6 @@ const stages: readonly { stage: Stage; title: string; add: string; take: string 
   { stage: 'before', title: 'Before', add: 'Add a before photo', take: 'Take a before photo' },
   { stage: 'after', title: 'After', add: 'Add an after photo', take: 'Take an after photo' },
 ];
-
-const storedPhotoSchema = laneSchema.shape.photos.element;
 
 const THUMB_HEIGHT = 96;
 
@@ -91,13 +87,15 @@ function readBody(xhr: XMLHttpRequest): unknown {
  * Sends the form with XMLHttpRequest rather than fetch, because only XHR reports upload
  * progress. Cookies carry the sign-in, so the write needs the session's CSRF token.
  */
-function sendForm(
+async function sendForm(
   url: string,
   csrfToken: string,
   form: FormData,
   onProgress: (percent: number | null) => void,
   track: (xhr: XMLHttpRequest | undefined) => void,
 ): Promise<void> {
+  const kit = await schemaKit();
+  const storedPhotoSchema = kit.laneSchema.shape.photos.element;
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     track(xhr);
@@ -123,7 +121,7 @@ function sendForm(
           );
         return;
       }
-      const error = errorBodySchema.safeParse(body);
+      const error = kit.errorBodySchema.safeParse(body);
       if (error.success) {
         const { code, message, fields } = error.data.error;
         reject(new ApiError(xhr.status, code, message, fields));
@@ -189,7 +187,7 @@ export function PhotoStrip({
     try {
       // Asked right before sending: it also renews a lapsed access cookie, and the token is the
       // one for the session the upload will run in.
-      const { me } = await apiRequest('/api/auth/session', sessionStateSchema);
+      const { me } = await apiRequest('/api/auth/session', (k) => k.sessionStateSchema);
       if (!me) throw new ApiError(401, 'unauthenticated', 'Your sign-in has ended.');
       setCsrfToken(me.csrfToken);
       const form = new FormData();

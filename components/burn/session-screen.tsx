@@ -7,7 +7,7 @@ import {
   igniterLabels,
   orientationLabels,
   statusLabels,
-} from '../../shared/schemas/burn';
+} from '../../shared/terms/burn';
 import { ApiError } from '../api/client';
 import {
   useCreatePairMutation,

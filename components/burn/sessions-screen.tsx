@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import { View } from 'react-native';
-import { statusLabels } from '../../shared/schemas/burn';
+import { statusLabels } from '../../shared/terms/burn';
 import { useSessionsQuery } from '../api/burn';
 import { bannerMessage } from '../api/error-messages';
 import { useLab } from '../lab-context';

@@ -2,7 +2,7 @@ import { Link } from 'expo-router';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Platform, Pressable, StyleSheet, useWindowDimensions, View } from 'react-native';
 import { deriveLane, nextMarks, type LaneState } from '../../shared/burn/derive';
-import { markLabels, type Mark, type MarkKind } from '../../shared/burn/marks';
+import { markLabels, type Mark, type MarkKind } from '../../shared/terms/marks';
 import type { Lane } from '../../shared/schemas/burn';
 import { newClientId } from '../client-id';
 import { Loading } from '../lab-gate';

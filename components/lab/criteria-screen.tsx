@@ -2,14 +2,10 @@ import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { ruleLabel } from '../../shared/criteria/judge';
-import {
-  criteriaProfileSchema,
-  ruleKinds,
-  ruleNeedsLimit,
-  type Rule,
-  type RuleKind,
-} from '../../shared/criteria/types';
+import { ruleKinds, ruleNeedsLimit, type RuleKind } from '../../shared/terms/criteria';
+import type { Rule } from '../../shared/criteria/types';
 import type { CriteriaProfileOutput } from '../../shared/schemas/criteria';
+import { loadSchemaKit } from '../schemas';
 import { bannerMessage } from '../api/error-messages';
 import { useCriteriaMutations, useCriteriaProfilesQuery, usePresetsQuery } from '../api/rankings';
 import { useLab } from '../lab-context';
@@ -55,7 +51,7 @@ function Editor({
     })),
   );
   const [problem, setProblem] = useState<string>();
-  const submit = () => {
+  const submit = async () => {
     const candidate = {
       name,
       minSpecimens: parseNumber(min),
@@ -67,7 +63,12 @@ function Editor({
       ...(profile.source ? { source: profile.source } : {}),
       ...(profile.description ? { description: profile.description } : {}),
     };
-    const parsed = criteriaProfileSchema.safeParse(candidate);
+    const kit = await loadSchemaKit().catch(() => undefined);
+    if (!kit) {
+      setProblem('Cannot reach the Quenchbook server. Check the connection and try again.');
+      return;
+    }
+    const parsed = kit.criteriaProfileSchema.safeParse(candidate);
     if (!parsed.success) {
       setProblem(parsed.error.issues.map((i) => `${i.path.join(' ')}: ${i.message}`).join('; '));
       return;

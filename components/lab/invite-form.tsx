@@ -1,8 +1,7 @@
 import { useState } from 'react';
 import { Controller } from 'react-hook-form';
 import { View } from 'react-native';
-import { createInvitationSchema } from '../../shared/schemas/invitation';
-import { roleSummaries } from '../../shared/schemas/roles';
+import { roleSummaries } from '../../shared/terms/roles';
 import { useInviteMutation } from '../api/labs';
 import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
@@ -12,7 +11,7 @@ import { AppText } from '../ui/text';
 import { roleOptions } from './role-words';
 
 export function InviteForm({ labId }: { labId: string }) {
-  const form = useZodForm(createInvitationSchema, { email: '', role: 'technician' });
+  const form = useZodForm((k) => k.createInvitationSchema, { email: '', role: 'technician' });
   const invite = useInviteMutation(labId);
   const [sentTo, setSentTo] = useState<string>();
   const role = form.watch('role');

@@ -1,7 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { View } from 'react-native';
-import { labSchema } from '../../shared/schemas/lab';
 import { apiRequest } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
 import { labKeys, useLabQuery } from '../api/labs';
@@ -20,7 +19,7 @@ export function LabSettings({ labId }: { labId: string }) {
   const [text, setText] = useState('');
   const save = useMutation({
     mutationFn: (weighTolerancePct: number) =>
-      apiRequest(`/api/labs/${labId}/settings`, labSchema, {
+      apiRequest(`/api/labs/${labId}/settings`, (k) => k.labSchema, {
         method: 'PATCH',
         body: { weighTolerancePct },
       }),

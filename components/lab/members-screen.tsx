@@ -2,7 +2,7 @@ import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { Member } from '../../shared/schemas/lab';
-import type { Role } from '../../shared/schemas/roles';
+import { type Role } from '../../shared/terms/roles';
 import { bannerMessage } from '../api/error-messages';
 import {
   useChangeRoleMutation,

@@ -1,4 +1,4 @@
-import { roles, type Role } from '../../shared/schemas/roles';
+import { roles, type Role } from '../../shared/terms/roles';
 
 export const roleLabels: Record<Role, string> = {
   manager: 'Manager',

@@ -1,12 +1,11 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
-import {
-  pairImportColumns,
-  pairImportTemplate,
-  type PairImportPreview,
-  type PairImportPreviewRow,
-  type PairImportResult,
+import { pairImportColumns, pairImportTemplate } from '../../shared/terms/pair-import';
+import type {
+  PairImportPreview,
+  PairImportPreviewRow,
+  PairImportResult,
 } from '../../shared/schemas/pair-import';
 import { ApiError } from '../api/client';
 import { bannerMessage } from '../api/error-messages';

@@ -2,13 +2,8 @@ import { Link } from 'expo-router';
 import { useState } from 'react';
 import { Platform, StyleSheet, useWindowDimensions, View } from 'react-native';
 import type { TreatmentStatsOutput } from '../../shared/schemas/ranking';
-import {
-  igniterLabels,
-  igniters,
-  orientationLabels,
-  orientations,
-} from '../../shared/schemas/burn';
-import { substrateLabels, substrates } from '../../shared/schemas/recipe';
+import { igniterLabels, igniters, orientationLabels, orientations } from '../../shared/terms/burn';
+import { substrateLabels, substrates } from '../../shared/terms/recipe';
 import { ApiError } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
 import {

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { View } from 'react-native';
-import type { UnitSystem } from '../../shared/schemas/roles';
+import { type UnitSystem } from '../../shared/terms/roles';
 import { MM_PER_IN } from '../../shared/units';
 import { space } from '../theme';
 import { TextField } from '../ui/text-field';

@@ -1,6 +1,6 @@
 import { StyleSheet, View } from 'react-native';
 import type { TreatmentStatsOutput } from '../../shared/schemas/ranking';
-import type { UnitSystem } from '../../shared/schemas/roles';
+import { type UnitSystem } from '../../shared/terms/roles';
 import { colors, space } from '../theme';
 import { AppText } from '../ui/text';
 import { formatLength, round } from '../units';

@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
-import type { UnitSystem } from '../../shared/schemas/roles';
+import { type UnitSystem } from '../../shared/terms/roles';
 import type { TreatmentPairOutput } from '../../shared/schemas/treatment';
 import { colors, space } from '../theme';
 import { AppText } from '../ui/text';

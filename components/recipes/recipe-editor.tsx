@@ -9,10 +9,11 @@ import {
   dryingMethods,
   substrateLabels,
   substrates,
-  type Recipe,
-} from '../../shared/schemas/recipe';
+} from '../../shared/terms/recipe';
+import type { Recipe } from '../../shared/schemas/recipe';
 import { useBatchPlanQuery, useChemicalsQuery, useSaveRecipeMutation } from '../api/recipes';
 import { bannerMessage } from '../api/error-messages';
+import { loadSchemaKit, useSchemaKit } from '../schemas';
 import { ApiError } from '../api/client';
 import { PlanView } from '../batches/plan-view';
 import { useLab } from '../lab-context';
@@ -63,9 +64,15 @@ export function RecipeEditor({ recipe }: { recipe?: Recipe }) {
   });
   const ingredients = useFieldArray({ control: form.control, name: 'ingredients' });
   const values = useDebounced(JSON.stringify(form.watch()), 400);
+  const kit = useSchemaKit();
 
   const previewRequest = useMemo<BatchPlanRequest | undefined>(() => {
-    const parsed = toRecipeInput(JSON.parse(values) as RecipeFormValues, units);
+    if (!kit) return undefined;
+    const parsed = toRecipeInput(
+      JSON.parse(values) as RecipeFormValues,
+      units,
+      kit.recipeInputSchema,
+    );
     if (!parsed.ok) return undefined;
     const { ingredients: list, waterParts, mixingTempC } = parsed.input;
     return {
@@ -75,7 +82,7 @@ export function RecipeEditor({ recipe }: { recipe?: Recipe }) {
       storageTempC: 20,
       target: { basis: 'water_volume', millilitres: units === 'us' ? 3785.411784 : 1000 },
     };
-  }, [values, units]);
+  }, [values, units, kit]);
   const preview = useBatchPlanQuery(lab.id, previewRequest);
 
   const chemicalOptions = (chemicals.data?.chemicals ?? []).map((c) => ({
@@ -88,7 +95,14 @@ export function RecipeEditor({ recipe }: { recipe?: Recipe }) {
 
   const submit = form.handleSubmit(async (v) => {
     setBanner(undefined);
-    const parsed = toRecipeInput(v, units);
+    let schema;
+    try {
+      schema = (await loadSchemaKit()).recipeInputSchema;
+    } catch {
+      setBanner('Cannot reach the Quenchbook server. Check the connection and try again.');
+      return;
+    }
+    const parsed = toRecipeInput(v, units, schema);
     if (!parsed.ok) {
       for (const e of parsed.errors)
         form.setError(e.path as Path<RecipeFormValues>, { message: e.message });

@@ -1,12 +1,6 @@
-import {
-  recipeInputSchema,
-  type amountUnits,
-  type dryingMethods,
-  type RecipeInput,
-  type Revision,
-  type Substrate,
-} from '../../shared/schemas/recipe';
-import type { UnitSystem } from '../../shared/schemas/roles';
+import { type amountUnits, type dryingMethods, type Substrate } from '../../shared/terms/recipe';
+import type { recipeInputSchema, RecipeInput, Revision } from '../../shared/schemas/recipe';
+import { type UnitSystem } from '../../shared/terms/roles';
 import { cToF, fToC } from '../../shared/units';
 import { parseNumber } from '../units';
 
@@ -84,9 +78,11 @@ export function formPath(schemaPath: string): string {
   return formField[schemaPath] ?? schemaPath;
 }
 
+/** The form's text as a recipe request, checked with the shared schema (from the schema kit). */
 export function toRecipeInput(
   v: RecipeFormValues,
   units: UnitSystem,
+  schema: typeof recipeInputSchema,
 ): { ok: true; input: RecipeInput } | { ok: false; errors: { path: string; message: string }[] } {
   const celsius = (s: string) => {
     const n = parseNumber(s);
@@ -112,7 +108,7 @@ export function toRecipeInput(
     conditioning: v.conditioning.trim() || undefined,
     notes: v.notes.trim() || undefined,
   };
-  const parsed = recipeInputSchema.safeParse(candidate);
+  const parsed = schema.safeParse(candidate);
   if (parsed.success) return { ok: true, input: parsed.data };
   return {
     ok: false,

@@ -1,8 +1,9 @@
 import { Link } from 'expo-router';
 import type { ReactNode } from 'react';
 import { ScrollView, StyleSheet, useWindowDimensions, View } from 'react-native';
-import type { UnitSystem } from '../../shared/schemas/roles';
-import { amountUnitLabels, substrateLabels, type Revision } from '../../shared/schemas/recipe';
+import { type UnitSystem } from '../../shared/terms/roles';
+import { amountUnitLabels, substrateLabels } from '../../shared/terms/recipe';
+import type { Revision } from '../../shared/schemas/recipe';
 import { ApiError } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
 import { useRecipeQuery, useRevisionsQuery } from '../api/recipes';

@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
-import { amountUnitLabels, substrateLabels } from '../../shared/schemas/recipe';
+import { amountUnitLabels, substrateLabels } from '../../shared/terms/recipe';
 import { bannerMessage } from '../api/error-messages';
 import { useBatchPlanQuery, useRecipeQuery } from '../api/recipes';
 import { PlanView } from '../batches/plan-view';

@@ -1,7 +1,7 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { substrateLabels, substrates, type Substrate } from '../../shared/schemas/recipe';
+import { substrateLabels, substrates, type Substrate } from '../../shared/terms/recipe';
 import { bannerMessage } from '../api/error-messages';
 import { useRecipesQuery } from '../api/recipes';
 import { useLab } from '../lab-context';

@@ -1,8 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState, type ReactNode } from 'react';
 import {
   Controller,
   useForm,
+  type Resolver,
   type Control,
   type FieldValues,
   type Path,
@@ -12,17 +12,37 @@ import { StyleSheet, View, type TextInputProps } from 'react-native';
 import type { z } from 'zod';
 import { ApiError } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
+import { loadSchemaKit, type SchemaPick } from '../schemas';
 import { space } from '../theme';
 import { Banner } from './banner';
 import { TextField } from './text-field';
 
-/** react-hook-form checked by the same shared zod schema the server uses. */
+/**
+ * A resolver that checks with a schema of the lazily loaded kit (components/schemas.ts): the
+ * first check of a form waits for the kit, every later one finds it loaded.
+ */
+export function kitResolver<S extends z.ZodType<FieldValues, FieldValues>>(
+  pick: SchemaPick<S>,
+): Resolver<z.input<S>, unknown, z.output<S>> {
+  return async (values, context, options) => {
+    const kit = await loadSchemaKit();
+    const resolve = kit.zodResolver(pick(kit) as never) as unknown as Resolver<
+      z.input<S>,
+      unknown,
+      z.output<S>
+    >;
+    return resolve(values, context, options);
+  };
+}
+
+/** react-hook-form checked by the same shared zod schema the server uses, e.g. `(k) => k.signInSchema`. */
 export function useZodForm<S extends z.ZodType<FieldValues, FieldValues>>(
-  schema: S,
+  pick: SchemaPick<S>,
   defaultValues: z.input<S>,
 ): UseFormReturn<z.input<S>, unknown, z.output<S>> {
+  const [resolver] = useState(() => kitResolver(pick));
   return useForm<z.input<S>, unknown, z.output<S>>({
-    resolver: zodResolver(schema as never) as never,
+    resolver,
     defaultValues: defaultValues as never,
     mode: 'onSubmit',
     reValidateMode: 'onChange',

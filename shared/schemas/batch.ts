@@ -1,4 +1,8 @@
 import { z } from 'zod';
+import { batchStatuses } from '../terms/batch';
+
+export * from '../terms/batch';
+
 import { ingredientInputSchema, temperatureCSchema } from './recipe';
 
 const bigEnough = (what: string) =>
@@ -92,9 +96,7 @@ export const batchPlanSchema = z
   .meta({ id: 'BatchPlan' });
 export type BatchPlanOutput = z.infer<typeof batchPlanSchema>;
 
-export const batchStatuses = ['prepared', 'in_use', 'used_up', 'discarded'] as const;
 export const batchStatusSchema = z.enum(batchStatuses);
-export type BatchStatus = z.infer<typeof batchStatusSchema>;
 
 export const weighInInputSchema = z.object({
   chemicalId: z.uuid('Choose a chemical'),

@@ -3,6 +3,8 @@ import type { AddressInfo } from 'node:net';
 import { z } from 'zod';
 import { ApiError, apiRequest } from '../../components/api/client';
 import { bannerMessage } from '../../components/api/error-messages';
+import { isSignedOutAnswer } from '../../components/api/session';
+import { sessionStateSchema } from '../../shared/schemas/auth';
 
 type Reply = { status: number; body: string; type?: string };
 let reply: Reply;
@@ -38,7 +40,7 @@ describe('apiRequest', () => {
   it('returns the parsed body and sends JSON', async () => {
     reply = { status: 200, body: '{"id":7}' };
     await expect(
-      apiRequest('/x', thing, { baseUrl: base, method: 'POST', body: { a: 1 } }),
+      apiRequest('/x', () => thing, { baseUrl: base, method: 'POST', body: { a: 1 } }),
     ).resolves.toEqual({ id: 7 });
     expect(lastBody).toBe('{"a":1}');
   });
@@ -46,7 +48,7 @@ describe('apiRequest', () => {
   it('sends a raw body as it is, with its own content type', async () => {
     reply = { status: 200, body: '{"id":8}' };
     const text = 'held_at,recipe\n2025-11-03,"Drape, soak"\n';
-    await apiRequest('/x', thing, {
+    await apiRequest('/x', () => thing, {
       baseUrl: base,
       method: 'POST',
       rawBody: { contentType: 'text/csv', text },
@@ -65,7 +67,7 @@ describe('apiRequest', () => {
         },
       }),
     };
-    const err = await fail(apiRequest('/x', thing, { baseUrl: base }));
+    const err = await fail(apiRequest('/x', () => thing, { baseUrl: base }));
     expect(err.requestId).toBe('6d0afa75-b977-4f1a-ad1f-928c0e156ddd');
     expect(bannerMessage(err)).toMatch(/quote reference 6d0afa75\.$/);
   });
@@ -81,7 +83,7 @@ describe('apiRequest', () => {
         },
       }),
     };
-    const err = await fail(apiRequest('/x', thing, { baseUrl: base }));
+    const err = await fail(apiRequest('/x', () => thing, { baseUrl: base }));
     expect(err).toBeInstanceOf(ApiError);
     expect(err).toMatchObject({
       status: 400,
@@ -92,7 +94,7 @@ describe('apiRequest', () => {
 
   it('gives code unexpected_response for a non-JSON error page', async () => {
     reply = { status: 502, body: '<html>Bad gateway</html>', type: 'text/html' };
-    expect(await fail(apiRequest('/x', thing, { baseUrl: base }))).toMatchObject({
+    expect(await fail(apiRequest('/x', () => thing, { baseUrl: base }))).toMatchObject({
       status: 502,
       code: 'unexpected_response',
     });
@@ -100,7 +102,7 @@ describe('apiRequest', () => {
 
   it('gives code unexpected_response when a 2xx body does not match the schema', async () => {
     reply = { status: 200, body: '{"id":"seven"}' };
-    expect(await fail(apiRequest('/x', thing, { baseUrl: base }))).toMatchObject({
+    expect(await fail(apiRequest('/x', () => thing, { baseUrl: base }))).toMatchObject({
       code: 'unexpected_response',
     });
   });
@@ -108,12 +110,51 @@ describe('apiRequest', () => {
   it('accepts a listed non-2xx status whose body is an answer', async () => {
     reply = { status: 503, body: '{"id":1}' };
     await expect(
-      apiRequest('/x', thing, { baseUrl: base, acceptStatuses: [503] }),
+      apiRequest('/x', () => thing, { baseUrl: base, acceptStatuses: [503] }),
     ).resolves.toEqual({ id: 1 });
   });
 
   it('gives code network when the server cannot be reached', async () => {
-    const err = await fail(apiRequest('/x', thing, { baseUrl: 'http://127.0.0.1:1' }));
+    const err = await fail(apiRequest('/x', () => thing, { baseUrl: 'http://127.0.0.1:1' }));
     expect(err).toMatchObject({ status: 0, code: 'network' });
+  });
+
+  it('picks the schema out of the schema kit', async () => {
+    reply = { status: 200, body: '{"status":"ok","db":"ok","version":"1"}' };
+    await expect(apiRequest('/x', (k) => k.healthSchema, { baseUrl: base })).resolves.toEqual({
+      status: 'ok',
+      db: 'ok',
+      version: '1',
+    });
+  });
+});
+
+describe('a signed-out session answer', () => {
+  it('is returned as it is without picking a schema', async () => {
+    reply = { status: 200, body: '{"me":null}' };
+    const pick = jest.fn(() => sessionStateSchema);
+    await expect(
+      apiRequest('/x', pick, { baseUrl: base, plainAnswer: isSignedOutAnswer }),
+    ).resolves.toEqual({ me: null });
+    expect(pick).not.toHaveBeenCalled();
+  });
+
+  it('is exactly what the shared schema accepts unchanged', () => {
+    expect(sessionStateSchema.parse({ me: null })).toEqual({ me: null });
+    for (const other of [{ me: null, extra: 1 }, { me: undefined }, { me: {} }, [null], null, {}]) {
+      expect([other, isSignedOutAnswer(other)]).toEqual([other, false]);
+    }
+  });
+
+  it('leaves any other answer to the schema', async () => {
+    reply = { status: 200, body: '{"me":{"id":"not a user"}}' };
+    expect(
+      await fail(
+        apiRequest('/x', (k) => k.sessionStateSchema, {
+          baseUrl: base,
+          plainAnswer: isSignedOutAnswer,
+        }),
+      ),
+    ).toMatchObject({ code: 'unexpected_response' });
   });
 });
