@@ -54,7 +54,11 @@ module.exports = tseslint.config(
   // loads as one lazy chunk: a value import anywhere else would put zod in the first page load.
   {
     files: ['app/**', 'components/**'],
-    ignores: ['components/schema-kit.ts', 'components/client-schemas.ts', 'components/zod-setup.ts'],
+    ignores: [
+      'components/schema-kit.ts',
+      'components/client-schemas.ts',
+      'components/zod-setup.ts',
+    ],
     rules: {
       '@typescript-eslint/no-restricted-imports': [
         'error',
