@@ -10,7 +10,7 @@ let started = false;
  * The chart code is not fetched: charts draw rankings, which need the server anyway.
  * On a phone the routes are in the one bundle and this only loads the kit.
  */
-export function preloadWhenIdle(): void {
+export function preloadWhenIdle(busy: () => boolean = () => false): void {
   if (started) return;
   started = true;
   const run = async () => {
@@ -26,6 +26,11 @@ export function preloadWhenIdle(): void {
     typeof requestIdleCallback === 'function'
       ? (cb) => requestIdleCallback(cb, { timeout: 5000 })
       : (cb) => setTimeout(cb, 0);
-  // A second's grace first: the first screen's own data comes before spare code.
-  setTimeout(() => whenIdle(() => void run()), 1000);
+  // A second's grace first, then wait while the first screen's own requests are in flight: its
+  // data comes before spare code.
+  const start = () => {
+    if (busy()) setTimeout(start, 250);
+    else whenIdle(() => void run());
+  };
+  setTimeout(start, 1000);
 }

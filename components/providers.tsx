@@ -15,7 +15,7 @@ export function Providers({ children }: { children: ReactNode }) {
     () =>
       new QueryClient({ defaultOptions: { queries: { retry: shouldRetry, staleTime: 10_000 } } }),
   );
-  useEffect(preloadWhenIdle, []);
+  useEffect(() => preloadWhenIdle(() => client.isFetching() > 0), [client]);
   return (
     <SafeAreaProvider>
       <QueryClientProvider client={client}>{children}</QueryClientProvider>
