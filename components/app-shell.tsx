@@ -4,6 +4,7 @@ import { Pressable, ScrollView, StyleSheet, useWindowDimensions, View } from 're
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
 import { useLab } from './lab-context';
 import { LabSwitcher } from './lab-switcher';
+import { usePreloadOnceShown } from './preload';
 import { sectionPath, sections, type Section } from './sections';
 import { colors, fonts, space, WIDE_BREAKPOINT } from './theme';
 import { printExpand, printHide } from './ui/print';
@@ -59,6 +60,7 @@ const toTarget =
 export function AppShell({ children }: { children: ReactNode }) {
   const { width } = useWindowDimensions();
   const insets = useSafeAreaInsets();
+  usePreloadOnceShown();
   const { lab } = useLab();
   const wide = width >= WIDE_BREAKPOINT;
   const targets = sections.map(toTarget(lab.id));

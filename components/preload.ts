@@ -1,4 +1,6 @@
+import { useQueryClient } from '@tanstack/react-query';
 import { ctx } from 'expo-router/_ctx';
+import { useEffect } from 'react';
 import { loadSchemaKit } from './schemas';
 
 let started = false;
@@ -33,4 +35,13 @@ export function preloadWhenIdle(busy: () => boolean = () => false): void {
     else whenIdle(() => void run());
   };
   setTimeout(start, 1000);
+}
+
+/**
+ * Starts the preload once a screen is up: the screen frames (sign-in and the other account
+ * screens, the lab shell, the lab list) call this, so it never competes with the first screen.
+ */
+export function usePreloadOnceShown(): void {
+  const client = useQueryClient();
+  useEffect(() => preloadWhenIdle(() => client.isFetching() > 0), [client]);
 }

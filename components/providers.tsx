@@ -1,8 +1,7 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { useEffect, useState, type ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 import { ApiError } from './api/client';
-import { preloadWhenIdle } from './preload';
 
 function shouldRetry(failureCount: number, error: unknown): boolean {
   // A 4xx will not change by asking again; network trouble and 5xx may.
@@ -15,7 +14,6 @@ export function Providers({ children }: { children: ReactNode }) {
     () =>
       new QueryClient({ defaultOptions: { queries: { retry: shouldRetry, staleTime: 10_000 } } }),
   );
-  useEffect(() => preloadWhenIdle(() => client.isFetching() > 0), [client]);
   return (
     <SafeAreaProvider>
       <QueryClientProvider client={client}>{children}</QueryClientProvider>

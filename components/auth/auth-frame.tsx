@@ -1,6 +1,7 @@
 import { Link, type Href } from 'expo-router';
 import type { ReactNode } from 'react';
 import { ScrollView, StyleSheet, View } from 'react-native';
+import { usePreloadOnceShown } from '../preload';
 import { colors, fonts, radius, space } from '../theme';
 import { AppText } from '../ui/text';
 
@@ -14,6 +15,7 @@ export function AuthFrame({
   intro?: string;
   children: ReactNode;
 }) {
+  usePreloadOnceShown();
   return (
     <ScrollView style={styles.page} contentContainerStyle={styles.center}>
       <View style={styles.card}>
