@@ -1,7 +1,6 @@
 import { z } from 'zod';
-import { newPasswordSchema } from '../shared/schemas/auth';
+import { newPasswordSchema, signedInSchema } from '../shared/schemas/auth';
 import { createChemicalSchema, type CreateChemicalInput } from '../shared/schemas/chemical';
-import { signedInSchema } from '../shared/schemas/auth';
 
 // Schemas only the app uses: form shapes that differ from a request body, and answers the shared
 // schemas do not name. Reached only through the schema kit (components/schema-kit.ts).
