@@ -8,7 +8,10 @@ import { computeRankings, fetchPairRows } from '../server/services/rankings';
 import { benchDatabase, fmt, percentile, startServerProcess, timedRequest } from './support';
 
 // Issue target: 500 treatments × 20 pairs (10,000 pairs). The ranking over the API at 10
-// connections on loopback: p95 ≤ 100 ms; the server's time for the ranking against the bare SQL
+// connections on loopback: p95 ≤ 100 ms, both as the app asks (accepting gzip, as every browser
+// does, ~60 kB) and uncompressed (~450 kB). A discarded warm-up burst comes first: right after the
+// cold rankings the first burst paid for their garbage collection (p95 88–208 ms in runs of
+// 2026-12-02, ~45–70 ms once warm); the cold cost is printed on its own line; the server's time for the ranking against the bare SQL
 // fetch of the same rows, in the same run: ratio ≤ 3.
 const TREATMENTS = 500;
 const PAIRS = 20;
@@ -118,7 +121,10 @@ export async function benchRanking(): Promise<boolean> {
     if (!signIn.ok) throw new Error(`sign-in answered ${signIn.status}: ${await signIn.text()}`);
     const { accessToken } = (await signIn.json()) as { accessToken: string };
     const url = `${server.url}/api/labs/${lab.id}/rankings`;
-    const get = () => timedRequest(url, { headers: { Authorization: `Bearer ${accessToken}` } });
+    const get = (encoding = 'identity') =>
+      timedRequest(url, {
+        headers: { Authorization: `Bearer ${accessToken}`, 'Accept-Encoding': encoding },
+      });
     // A write moves the lab's data version: the next request ranks again from the database.
     const touch = () =>
       q.query(
@@ -132,23 +138,34 @@ export async function benchRanking(): Promise<boolean> {
       await touch();
       cold.push((await get()).ms);
     }
-    const latencies: number[] = [];
-    let next = 0;
-    await Promise.all(
-      Array.from({ length: CONNECTIONS }, async () => {
-        while (next < REQUESTS) {
-          next++;
-          const { status, ms } = await get();
-          if (status !== 200) throw new Error(`rankings answered ${status}`);
-          latencies.push(ms);
-        }
-      }),
-    );
-    const p95 = percentile(latencies, 95);
+    // 10 connections, REQUESTS in all: as the app asks (gzip, ~60 kB), then uncompressed.
+    const burst = async (encoding: string) => {
+      const times: number[] = [];
+      let next = 0;
+      await Promise.all(
+        Array.from({ length: CONNECTIONS }, async () => {
+          while (next < REQUESTS) {
+            next++;
+            const { status, ms } = await get(encoding);
+            if (status !== 200) throw new Error(`rankings answered ${status}`);
+            times.push(ms);
+          }
+        }),
+      );
+      return times;
+    };
+    await burst('gzip');
+    const gzipped = await burst('gzip');
+    const uncompressed = await burst('identity');
+    const p95 = percentile(gzipped, 95);
+    const p95Uncompressed = percentile(uncompressed, 95);
     const ratio = percentile(full, 50) / percentile(sqlOnly, 50);
     console.log(`Ranking of ${TREATMENTS} treatments × ${PAIRS} pairs`);
     console.log(
-      `  API at ${CONNECTIONS} connections, ${REQUESTS} requests: p50 ${fmt(percentile(latencies, 50))}  p95 ${fmt(p95)}  (target p95 ≤ 100 ms: ${p95 <= 100 ? 'met' : 'NOT met'})`,
+      `  API at ${CONNECTIONS} connections, ${REQUESTS} requests, gzip as the app asks: p50 ${fmt(percentile(gzipped, 50))}  p95 ${fmt(p95)}  (target p95 ≤ 100 ms: ${p95 <= 100 ? 'met' : 'NOT met'})`,
+    );
+    console.log(
+      `  the same, uncompressed: p50 ${fmt(percentile(uncompressed, 50))}  p95 ${fmt(p95Uncompressed)}  (target p95 ≤ 100 ms: ${p95Uncompressed <= 100 ? 'met' : 'NOT met'})`,
     );
     console.log(
       `  first request after a write (ranks again): median ${fmt(percentile(cold, 50))} of ${cold.length}`,
@@ -159,7 +176,7 @@ export async function benchRanking(): Promise<boolean> {
     console.log(
       `  ratio ranking / SQL: ${ratio.toFixed(2)}  (target ≤ 3: ${ratio <= 3 ? 'met' : 'NOT met'})`,
     );
-    return p95 <= 100 && ratio <= 3;
+    return p95 <= 100 && p95Uncompressed <= 100 && ratio <= 3;
   } finally {
     server.stop();
     await runtime.close();
