@@ -1,3 +1,4 @@
+import { fontFaces } from './font-faces';
 import { Platform } from 'react-native';
 
 // Quenchbook's own palette: dark ink on warm paper for reading outdoors on a phone, one teal
@@ -24,12 +25,7 @@ export const space = { xs: 4, sm: 8, md: 12, lg: 16, xl: 24, xxl: 32 } as const;
 
 export const radius = { sm: 6, md: 10 } as const;
 
-/** Family names registered by the root layout with expo-font. */
-export const fontFaces = {
-  regular: 'Source Sans 3',
-  semibold: 'Source Sans 3 SemiBold',
-  bold: 'Source Sans 3 Bold',
-} as const;
+export { fontFaces };
 
 // In CSS an unquoted family name may not contain a word that starts with a digit ("3"), so on
 // the web the names go into styles quoted, with a fallback.

@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { childEnv, loadConfig, repoRoot } from '../server/config';
 
@@ -15,6 +15,7 @@ const SOURCES = [
   'metro.config.js',
   'metro-zod-locales.js',
   'metro-simple-statistics.js',
+  'public/index.html',
 ];
 
 function newestMtime(target: string): number {
@@ -34,6 +35,21 @@ export function webBuildIsStale(webDir: string): boolean {
   return sources > statSync(index).mtimeMs;
 }
 
+/** The faces public/index.html declares, copied from the font package to public/fonts/. */
+export const WEB_FONTS = [
+  '400Regular/SourceSans3_400Regular.ttf',
+  '600SemiBold/SourceSans3_600SemiBold.ttf',
+  '700Bold/SourceSans3_700Bold.ttf',
+];
+
+function copyWebFonts(): void {
+  const from = path.join(repoRoot, 'node_modules', '@expo-google-fonts', 'source-sans-3');
+  const to = path.join(repoRoot, 'public', 'fonts');
+  mkdirSync(to, { recursive: true });
+  for (const file of WEB_FONTS)
+    copyFileSync(path.join(from, file), path.join(to, path.basename(file)));
+}
+
 /** Exports the web app with Expo when it is missing or older than its sources. */
 export function ensureWebBuild(webDir: string, opts: { force?: boolean } = {}): 'built' | 'fresh' {
   if (!opts.force && !webBuildIsStale(webDir)) return 'fresh';
@@ -45,6 +61,7 @@ export function ensureWebBuild(webDir: string, opts: { force?: boolean } = {}): 
     env: childEnv({}),
   });
   if (skia.status !== 0) throw new Error('Copying canvaskit.wasm failed; see the output above.');
+  copyWebFonts();
   const result = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', webDir], {
     cwd: repoRoot,
     stdio: 'inherit',

@@ -1,5 +1,6 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
+import { fontFaces } from '../../components/font-faces';
 import { browserTestEnv } from '../support/browser-env';
 import { viewports } from '../support/browser';
 import { seedLab, signInThroughUi } from '../support/ui';
@@ -55,6 +56,24 @@ describe('the web export', () => {
   });
 });
 
+describe('the web faces', () => {
+  it('are declared in index.html under the family names the styles use, and served as TrueType', async () => {
+    const html = readFileSync(path.join(webDir(), 'index.html'), 'utf8');
+    const faces = [...html.matchAll(/font-family: '([^']+)';\s*src: url\('([^']+)'\)/g)].map(
+      (m) => ({ family: m[1]!, url: m[2]! }),
+    );
+    expect(faces.map((f) => f.family).sort()).toEqual(Object.values(fontFaces).sort());
+    for (const face of faces) {
+      expect(html).toMatch(new RegExp(`<link\\s+rel="preload"\\s+href="${face.url}"`));
+      const res = await fetch(`${env.server.url}${face.url}`);
+      expect([face.url, res.status]).toEqual([face.url, 200]);
+      const bytes = Buffer.from(await res.arrayBuffer());
+      // TrueType files start with the sfnt version 0x00010000 (OpenType spec, "Table Directory").
+      expect(bytes.subarray(0, 4).toString('hex')).toBe('00010000');
+    }
+  });
+});
+
 describe('a cold visit in Chromium (390×844)', () => {
   it('shows the sign-in screen without fetching zod, then fetches every screen while idle', async () => {
     const context = await env.browser.newContext({ viewport: viewports.phone });
@@ -74,6 +93,16 @@ describe('a cold visit in Chromium (390×844)', () => {
     );
     expect(beforeForm.length).toBeGreaterThan(0);
     expect(carrying(beforeForm, ZOD)).toEqual([]);
+    // The faces come from index.html's @font-face rules, not from expo-font in the scripts.
+    expect(carrying(beforeForm, /fontfaceobserver|ExpoFontLoader/)).toEqual([]);
+    await page.evaluate(() => document.fonts.ready);
+    expect(
+      await page.evaluate(() =>
+        Array.from(document.fonts as unknown as Iterable<FontFace>)
+          .filter((f) => f.status === 'loaded')
+          .map((f) => f.family),
+      ),
+    ).toContain('Source Sans 3');
     await page.unroute('**/schema-kit-*.js');
 
     // Signing in checks the form with the kit, fetched now. Once idle, every route's chunk has
