@@ -5,7 +5,7 @@ import { ruleLabel } from '../../shared/criteria/judge';
 import { ruleKinds, ruleNeedsLimit, type RuleKind } from '../../shared/terms/criteria';
 import type { Rule } from '../../shared/criteria/types';
 import type { CriteriaProfileOutput } from '../../shared/schemas/criteria';
-import { loadSchemaKit } from '../schemas';
+import { schemaKit } from '../api/client';
 import { bannerMessage } from '../api/error-messages';
 import { useCriteriaMutations, useCriteriaProfilesQuery, usePresetsQuery } from '../api/rankings';
 import { useLab } from '../lab-context';
@@ -63,9 +63,11 @@ function Editor({
       ...(profile.source ? { source: profile.source } : {}),
       ...(profile.description ? { description: profile.description } : {}),
     };
-    const kit = await loadSchemaKit().catch(() => undefined);
-    if (!kit) {
-      setProblem('Cannot reach the Quenchbook server. Check the connection and try again.');
+    let kit;
+    try {
+      kit = await schemaKit();
+    } catch (err) {
+      setProblem(bannerMessage(err));
       return;
     }
     const parsed = kit.criteriaProfileSchema.safeParse(candidate);

@@ -13,8 +13,8 @@ import {
 import type { Recipe } from '../../shared/schemas/recipe';
 import { useBatchPlanQuery, useChemicalsQuery, useSaveRecipeMutation } from '../api/recipes';
 import { bannerMessage } from '../api/error-messages';
-import { loadSchemaKit, useSchemaKit } from '../schemas';
-import { ApiError } from '../api/client';
+import { useSchemaKit } from '../schemas';
+import { ApiError, schemaKit } from '../api/client';
 import { PlanView } from '../batches/plan-view';
 import { useLab } from '../lab-context';
 import { space } from '../theme';
@@ -97,9 +97,9 @@ export function RecipeEditor({ recipe }: { recipe?: Recipe }) {
     setBanner(undefined);
     let schema;
     try {
-      schema = (await loadSchemaKit()).recipeInputSchema;
-    } catch {
-      setBanner('Cannot reach the Quenchbook server. Check the connection and try again.');
+      schema = (await schemaKit()).recipeInputSchema;
+    } catch (err) {
+      setBanner(bannerMessage(err));
       return;
     }
     const parsed = toRecipeInput(v, units, schema);
