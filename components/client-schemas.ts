@@ -11,18 +11,6 @@ export const ignoredAnswerSchema = z.unknown();
 /** Accepting an invitation: a newcomer is signed in; a member already signed in gets the lab. */
 export const invitationAcceptedSchema = z.union([signedInSchema, z.object({ labId: z.uuid() })]);
 
-export const criteriaPresetsSchema = z.object({
-  presets: z.array(
-    z.object({
-      key: z.string(),
-      name: z.string(),
-      source: z.string().nullable(),
-      caution: z.string(),
-      description: z.string().nullable(),
-    }),
-  ),
-});
-
 export const newcomerFormSchema = z.object({
   displayName: z.string().trim().min(1, 'Enter your name').max(80),
   password: newPasswordSchema,

@@ -84,7 +84,9 @@ export function usePresetsQuery(labId: string) {
   return useQuery({
     queryKey: rankingKeys.presets(labId),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/labs/${labId}/criteria-presets`, (k) => k.criteriaPresetsSchema, { signal }),
+      apiRequest(`/api/labs/${labId}/criteria-presets`, (k) => k.criteriaPresetListSchema, {
+        signal,
+      }),
     staleTime: Infinity,
   });
 }

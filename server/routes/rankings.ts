@@ -1,8 +1,8 @@
 import { Router } from 'express';
 import Papa from 'papaparse';
-import { z } from 'zod';
 import { FORMULA_START } from '../../shared/csv/formulae';
 import { criteriaPresets } from '../../shared/criteria/presets';
+import { criteriaPresetListSchema } from '../../shared/schemas/criteria';
 import { labParamsSchema } from '../../shared/schemas/lab';
 import { rankingQuerySchema, rankingSchema } from '../../shared/schemas/ranking';
 import { labOf, requireLab } from '../middleware/auth';
@@ -10,20 +10,6 @@ import { validate } from '../middleware/validate';
 import type { ApiDocs } from '../openapi';
 import { documentPath } from '../openapi-paths';
 import { pairRowsForCsv, rankings, rankingsJson } from '../services/rankings';
-
-const presetListSchema = z
-  .object({
-    presets: z.array(
-      z.object({
-        key: z.string(),
-        name: z.string(),
-        source: z.string().nullable(),
-        caution: z.string(),
-        description: z.string().nullable(),
-      }),
-    ),
-  })
-  .meta({ id: 'CriteriaPresetList' });
 
 const round = (v: number | null | undefined, digits = 2) =>
   v === null || v === undefined || !Number.isFinite(v)
@@ -180,7 +166,7 @@ export function registerRankingDocs(docs: ApiDocs): void {
     summary: 'Criteria presets built from published test methods',
     access: member,
     params: labParamsSchema,
-    ok: { status: 200, schema: presetListSchema, description: 'Presets' },
+    ok: { status: 200, schema: criteriaPresetListSchema, description: 'Presets' },
     errors: [401, 404],
   });
 }

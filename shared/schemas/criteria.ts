@@ -31,3 +31,18 @@ export const profileParamsSchema = z.object({
   labId: z.uuid(),
   profileId: z.uuid('Unknown criteria profile'),
 });
+
+/** The built-in criteria presets a lab can start a profile from (GET criteria-presets). */
+export const criteriaPresetListSchema = z
+  .object({
+    presets: z.array(
+      z.object({
+        key: z.string(),
+        name: z.string(),
+        source: z.string().nullable(),
+        caution: z.string(),
+        description: z.string().nullable(),
+      }),
+    ),
+  })
+  .meta({ id: 'CriteriaPresetList' });
