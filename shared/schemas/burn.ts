@@ -8,6 +8,7 @@ import {
   pairStatuses,
   type ChecklistKey,
 } from '../terms/burn';
+import { markKinds } from '../terms/marks';
 
 export * from '../terms/burn';
 
@@ -132,17 +133,7 @@ export const postMarksSchema = z
         z.object({
           id: z.uuid(),
           specimenId: z.uuid(),
-          kind: z.enum([
-            'flame_applied',
-            'flame_removed',
-            'flame_out',
-            'glow_out',
-            'reignited',
-            'flaming_drip',
-            'burned_to_clamp',
-            'stopped',
-            'undo',
-          ]),
+          kind: z.enum(markKinds),
           atMs: z.number().finite().min(0),
           undoes: z.uuid().optional(),
         }),
