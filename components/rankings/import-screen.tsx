@@ -20,6 +20,7 @@ import { Banner } from '../ui/banner';
 import { Button } from '../ui/button';
 import { Card } from '../ui/card';
 import { TextField } from '../ui/text-field';
+import { tableStyles } from '../ui/table';
 import { AppText } from '../ui/text';
 import { canPickFiles, CsvFileInput, saveTextFile } from './csv-file';
 
@@ -77,13 +78,13 @@ const HEAD = ['Line', 'Held', 'Treatment', 'Control char', 'Treated char', 'Afte
 function PreviewTable({ rows }: { rows: PairImportPreviewRow[] }) {
   return (
     <View role="table" aria-label="Rows of the file" style={styles.table}>
-      <View role="row" style={[styles.row, styles.head]}>
+      <View role="row" style={[tableStyles.row, tableStyles.head]}>
         {[...HEAD, 'Check'].map((h, i) => (
           <AppText
             key={h}
             variant="label"
             role="columnheader"
-            style={[styles.cell, (i === 2 || i === 7) && styles.wide]}
+            style={[tableStyles.cell, (i === 2 || i === 7) && styles.wide]}
           >
             {h}
           </AppText>
@@ -92,15 +93,15 @@ function PreviewTable({ rows }: { rows: PairImportPreviewRow[] }) {
       {rows.map((row) => {
         const s = summary(row);
         return (
-          <View key={row.line} role="row" style={styles.row} testID={`import-row-${row.line}`}>
+          <View key={row.line} role="row" style={tableStyles.row} testID={`import-row-${row.line}`}>
             {[row.line, s.held, s.treatment, s.control, s.treated, s.afterflame, s.batch].map(
               (text, i) => (
-                <AppText key={i} role="cell" style={[styles.cell, i === 2 && styles.wide]}>
+                <AppText key={i} role="cell" style={[tableStyles.cell, i === 2 && styles.wide]}>
                   {text}
                 </AppText>
               ),
             )}
-            <View role="cell" style={[styles.cell, styles.wide]}>
+            <View role="cell" style={[tableStyles.cell, styles.wide]}>
               <RowErrors row={row} />
             </View>
           </View>
@@ -133,6 +134,18 @@ function PreviewCards({ rows }: { rows: PairImportPreviewRow[] }) {
   );
 }
 
+/** Each column by name, with what goes in it. */
+function ColumnList({ columns }: { columns: readonly (typeof pairImportColumns)[number][] }) {
+  return columns.map((c) => (
+    <AppText key={c.name} variant="small">
+      <AppText variant="small" style={styles.code}>
+        {c.name}
+      </AppText>{' '}
+      — {c.about}
+    </AppText>
+  ));
+}
+
 function Format() {
   const required = pairImportColumns.filter((c) => c.required);
   const optional = pairImportColumns.filter((c) => !c.required);
@@ -144,23 +157,9 @@ function Format() {
         as well as a point. Separate cells with commas, or semicolons when numbers use commas.
       </AppText>
       <AppText variant="label">Needed in every row</AppText>
-      {required.map((c) => (
-        <AppText key={c.name} variant="small">
-          <AppText variant="small" style={styles.code}>
-            {c.name}
-          </AppText>{' '}
-          — {c.about}
-        </AppText>
-      ))}
+      <ColumnList columns={required} />
       <AppText variant="label">May be left out or empty</AppText>
-      {optional.map((c) => (
-        <AppText key={c.name} variant="small">
-          <AppText variant="small" style={styles.code}>
-            {c.name}
-          </AppText>{' '}
-          — {c.about}
-        </AppText>
-      ))}
+      <ColumnList columns={optional} />
       {canPickFiles ? (
         <Button
           label="Download the template (CSV)"
@@ -361,15 +360,6 @@ export function ImportScreen() {
 
 const styles = StyleSheet.create({
   table: { borderTopWidth: 1, borderTopColor: colors.line },
-  row: {
-    flexDirection: 'row',
-    gap: space.sm,
-    paddingVertical: space.sm,
-    borderBottomWidth: 1,
-    borderBottomColor: colors.line,
-  },
-  head: { borderBottomWidth: 2, borderBottomColor: colors.ink },
-  cell: { flex: 1 },
   wide: { flex: 2 },
   code: { fontFamily: fonts.semibold },
   paste: { minHeight: 120, paddingVertical: space.sm, textAlignVertical: 'top' },

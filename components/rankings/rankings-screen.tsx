@@ -20,6 +20,7 @@ import { Button } from '../ui/button';
 import { Card } from '../ui/card';
 import { Choice } from '../ui/choice';
 import { TextField } from '../ui/text-field';
+import { tableStyles } from '../ui/table';
 import { AppText } from '../ui/text';
 import { formatLength, round, useUnitSystem } from '../units';
 import { RankingChart } from './ranking-chart';
@@ -126,57 +127,57 @@ function TreatmentTable({
   ];
   return (
     <View role="table" aria-label="Ranking" style={styles.table}>
-      <View role="row" style={[styles.row, styles.head]}>
+      <View role="row" style={[tableStyles.row, tableStyles.head]}>
         {head.map((h, i) => (
           <AppText
             key={h}
             variant="label"
             role="columnheader"
-            style={[styles.cell, i === 1 && styles.wide]}
+            style={[tableStyles.cell, i === 1 && styles.wide]}
           >
             {h}
           </AppText>
         ))}
       </View>
       {list.map((t) => (
-        <View key={t.key} role="row" style={styles.row} testID={`row-${t.rank ?? 'unranked'}`}>
-          <AppText role="cell" style={styles.cell}>
+        <View key={t.key} role="row" style={tableStyles.row} testID={`row-${t.rank ?? 'unranked'}`}>
+          <AppText role="cell" style={tableStyles.cell}>
             {t.rank ?? '–'}
           </AppText>
-          <View role="cell" style={[styles.cell, styles.wide]}>
+          <View role="cell" style={[tableStyles.cell, styles.wide]}>
             <Link href={hrefOf(t) as never} testID={`open-treatment-${t.rank ?? 'unranked'}`}>
               <AppText style={{ color: colors.primary, textDecorationLine: 'underline' }}>
                 {t.recipeName} (rev. {t.revisionNumber}) · {t.substrate}
               </AppText>
             </Link>
           </View>
-          <AppText role="cell" style={styles.cell}>
+          <AppText role="cell" style={tableStyles.cell}>
             {t.pairs}
           </AppText>
-          <AppText role="cell" style={styles.cell}>
+          <AppText role="cell" style={tableStyles.cell}>
             {formatLength(t.treatedChar.mean, units)} ± {formatLength(t.treatedChar.sd, units)}
           </AppText>
-          <AppText role="cell" style={styles.cell}>
+          <AppText role="cell" style={tableStyles.cell}>
             {formatLength(t.controlChar.mean, units)}
           </AppText>
-          <AppText role="cell" style={styles.cell}>
+          <AppText role="cell" style={tableStyles.cell}>
             {formatLength(t.difference.mean, units)}
             {t.difference.ci95
               ? ` (${formatLength(t.difference.ci95[0], units)} – ${formatLength(t.difference.ci95[1], units)})`
               : ''}
           </AppText>
-          <AppText role="cell" style={styles.cell}>
+          <AppText role="cell" style={tableStyles.cell}>
             {pValue(t.difference.pairedP)} / {pValue(t.difference.wilcoxonP)}
           </AppText>
-          <AppText role="cell" style={styles.cell}>
+          <AppText role="cell" style={tableStyles.cell}>
             {t.selfExtinguish.count}/{t.pairs}
           </AppText>
-          <AppText role="cell" style={styles.cell}>
+          <AppText role="cell" style={tableStyles.cell}>
             {t.pairsNeeded ?? '–'}
           </AppText>
           <AppText
             role="cell"
-            style={styles.cell}
+            style={tableStyles.cell}
             tone={t.verdict ? (t.verdict.pass ? 'ok' : 'danger') : 'muted'}
           >
             {t.verdict ? (t.verdict.pass ? 'Pass' : 'Fail') : '–'}
@@ -418,15 +419,6 @@ const styles = StyleSheet.create({
     borderRadius: 10,
     padding: space.md,
   },
-  row: {
-    flexDirection: 'row',
-    gap: space.sm,
-    paddingVertical: space.sm,
-    borderBottomWidth: 1,
-    borderBottomColor: colors.line,
-  },
-  head: { borderBottomWidth: 2, borderBottomColor: colors.ink },
-  cell: { flex: 1 },
   wide: { flex: 2.2 },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
   dates: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
