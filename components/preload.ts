@@ -12,7 +12,7 @@ let started = false;
  * The chart code is not fetched: charts draw rankings, which need the server anyway.
  * On a phone the routes are in the one bundle and this only loads the kit.
  */
-export function preloadWhenIdle(busy: () => boolean = () => false): void {
+function preloadWhenIdle(busy: () => boolean): void {
   if (started) return;
   started = true;
   const run = async () => {
